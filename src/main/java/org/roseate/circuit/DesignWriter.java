@@ -1,0 +1,48 @@
+package org.roseate.circuit;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.util.Map;
+import org.roseate.value.Tolerance;
+
+/**
+ * Writes a design as design-file JSON, keys in the documented order, values in IEC 60062 letter
+ * code; {@link DesignReader#parse} reads the text back to an equal design.
+ */
+public final class DesignWriter {
+    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    private DesignWriter() {
+    }
+
+    public static String toJson(Design design) {
+        ObjectNode root = JSON.createObjectNode();
+        root.put("name", design.name());
+        root.put("description", design.description());
+        if (!design.tolerances().isEmpty()) {
+            ObjectNode tol = root.putObject("tolerance");
+            for (Map.Entry<String, Tolerance> e : design.tolerances().entrySet()) {
+                tol.put(e.getKey(), e.getValue().toString());
+            }
+        }
+        ArrayNode stages = root.putArray("stages");
+        for (Stage s : design.stages()) {
+            ObjectNode st = stages.addObject();
+            st.put("kind", s.kind());
+            s.networks().forEach((role, net) -> st.put(role, net.toExpression()));
+            s.opamp().ifPresent(op -> {
+                ObjectNode o = st.putObject("opamp");
+                o.put("gbwHz", op.gbwHz());
+                o.put("openLoopGain", op.openLoopGain());
+            });
+        }
+        try {
+            return JSON.writeValueAsString(root) + System.lineSeparator();
+        } catch (JsonProcessingException e) {
+            throw new IllegalStateException("cannot serialise design " + design.name(), e);
+        }
+    }
+}

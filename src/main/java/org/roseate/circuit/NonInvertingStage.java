@@ -1,0 +1,35 @@
+package org.roseate.circuit;
+
+import java.util.Map;
+import java.util.Objects;
+import java.util.Optional;
+import java.util.function.UnaryOperator;
+
+/**
+ * A non-inverting op-amp stage: H = 1 + Zf/Zg with an ideal op-amp, or with a single-pole op-amp
+ * H = (1 + Zf/Zg) / (1 + (1 + Zf/Zg)/A).
+ */
+public record NonInvertingStage(Network ground, Network feedback, Optional<OpAmp> opamp) implements Stage {
+    public static final String KIND = "noninverting";
+
+    public NonInvertingStage {
+        Objects.requireNonNull(ground, "ground");
+        Objects.requireNonNull(feedback, "feedback");
+        Objects.requireNonNull(opamp, "opamp");
+    }
+
+    @Override
+    public String kind() {
+        return KIND;
+    }
+
+    @Override
+    public Map<String, Network> networks() {
+        return Stage.roles("ground", ground, "feedback", feedback);
+    }
+
+    @Override
+    public Stage mapNetworks(UnaryOperator<Network> f) {
+        return new NonInvertingStage(f.apply(ground), f.apply(feedback), opamp);
+    }
+}

@@ -1,0 +1,81 @@
+package org.roseate.cli;
+
+import java.io.PrintWriter;
+import org.roseate.circuit.DesignException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/** The top-level command: dispatches to one subcommand per verb. */
+@Command(name = "roseate",
+        mixinStandardHelpOptions = true,
+        versionProvider = RoseateCommand.Version.class,
+        description = {
+            "Design, hear and measure analog noise-shaping filters (pink-noise RC networks).",
+            "Run without arguments to open the window."},
+        subcommands = {AnalyzeCommand.class, CommandLine.HelpCommand.class})
+public final class RoseateCommand implements Runnable {
+    /** Exit status for bad input: files, values, arguments. */
+    public static final int EXIT_BAD_INPUT = 2;
+    /** Exit status for audio-device trouble. */
+    public static final int EXIT_DEVICE = 3;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public void run() {
+        throw new CommandLine.ParameterException(spec.commandLine(), "name a subcommand, e.g. 'analyze presets/bench-pink.json'");
+    }
+
+    /** Runs the command line and returns the exit status; never throws. */
+    public static int run(String... args) {
+        return run(new PrintWriter(System.out, true), new PrintWriter(System.err, true), args);
+    }
+
+    /** As {@link #run(String...)}, writing to the given streams (for tests). */
+    public static int run(PrintWriter out, PrintWriter err, String... args) {
+        CommandLine cl = new CommandLine(new RoseateCommand());
+        cl.setOut(out);
+        cl.setErr(err);
+        cl.setCaseInsensitiveEnumValuesAllowed(true);
+        cl.setParameterExceptionHandler((ex, a) -> {
+            err.println("roseate: " + ex.getMessage());
+            err.println("Try 'roseate " + commandPath(ex.getCommandLine()) + "--help' for the options.");
+            return EXIT_BAD_INPUT;
+        });
+        cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
+            Throwable e = ex;
+            if (e instanceof DesignException || e instanceof UserInputException) {
+                err.println("roseate: " + e.getMessage());
+                return EXIT_BAD_INPUT;
+            }
+            if (e instanceof DeviceException) {
+                err.println("roseate: " + e.getMessage());
+                return EXIT_DEVICE;
+            }
+            err.println("roseate: internal error: " + e);
+            e.printStackTrace(err);
+            return 1;
+        });
+        int code = cl.execute(args);
+        out.flush();
+        err.flush();
+        return code;
+    }
+
+    private static String commandPath(CommandLine cl) {
+        StringBuilder sb = new StringBuilder();
+        for (CommandLine c = cl; c.getParent() != null; c = c.getParent()) {
+            sb.insert(0, c.getCommandName() + " ");
+        }
+        return sb.toString();
+    }
+
+    static final class Version implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            String v = RoseateCommand.class.getPackage().getImplementationVersion();
+            return new String[] {"roseate " + (v == null ? "development build" : v)};
+        }
+    }
+}

@@ -1,0 +1,171 @@
+package org.roseate.digital;
+
+import java.util.List;
+import org.roseate.model.Complex;
+
+/**
+ * Decimation by 1, 2 or 4 as a cascade of {@link HalfbandDecimator}s. For factor 4 the first stage
+ * (4fs → 2fs) only has to keep what would fold onto the audio band, so its stopband starts at
+ * 2fs − passbandEdgeHz and it is much shorter; the second stage (2fs → fs) carries the sharp transition
+ * from passbandEdgeHz to fs − passbandEdgeHz. Each stage: stopband rejection ≥ {@value #REJECTION_DB} dB,
+ * passband ripple ≤ ±{@value #RIPPLE_DB} dB. Immutable.
+ */
+public final class Decimator {
+    /** Stopband rejection of each stage in dB. */
+    public static final double REJECTION_DB = 100;
+    /** Passband ripple limit of each stage in dB. */
+    public static final double RIPPLE_DB = 0.005;
+    /** The audio band edge used at 44.1 kHz and above, in Hz (common practice). */
+    public static final double AUDIO_EDGE_HZ = 20_000;
+
+    private final int factor;
+    private final double outputRateHz;
+    private final double passbandEdgeHz;
+    private final List<HalfbandDecimator> stages;
+
+    private Decimator(int factor, double outputRateHz, double passbandEdgeHz, List<HalfbandDecimator> stages) {
+        this.factor = factor;
+        this.outputRateHz = outputRateHz;
+        this.passbandEdgeHz = passbandEdgeHz;
+        this.stages = List.copyOf(stages);
+    }
+
+    /**
+     * The audio passband edge for an output rate: 20 kHz, scaled down in proportion below 44.1 kHz
+     * (edge = min(20000, outputRateHz·20000/44100)) so it always stays below Nyquist with a transition band.
+     */
+    public static double audioPassbandEdgeHz(double outputRateHz) {
+        return Math.min(AUDIO_EDGE_HZ, outputRateHz * AUDIO_EDGE_HZ / 44_100);
+    }
+
+    /** {@link #design(int, double, double)} with {@link #audioPassbandEdgeHz(double)}. */
+    public static Decimator forAudio(int factor, double outputRateHz) {
+        return design(factor, outputRateHz, audioPassbandEdgeHz(outputRateHz));
+    }
+
+    /**
+     * A decimator from factor·outputRateHz down to outputRateHz.
+     *
+     * @param factor         1, 2 or 4
+     * @param outputRateHz   output rate in Hz, finite and &gt; 0
+     * @param passbandEdgeHz edge of the protected band in Hz, 0 &lt; edge &lt; outputRateHz/2
+     */
+    public static Decimator design(int factor, double outputRateHz, double passbandEdgeHz) {
+        if (factor != 1 && factor != 2 && factor != 4) {
+            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2 or 4");
+        }
+        if (!(outputRateHz > 0) || !Double.isFinite(outputRateHz)) {
+            throw new IllegalArgumentException("outputRateHz=" + outputRateHz + " must be finite and > 0");
+        }
+        if (!(passbandEdgeHz > 0) || !(passbandEdgeHz < outputRateHz / 2)) {
+            throw new IllegalArgumentException("passbandEdgeHz=" + passbandEdgeHz + " must be in (0, "
+                    + outputRateHz / 2 + ") Hz");
+        }
+        List<HalfbandDecimator> stages = switch (factor) {
+            case 1 -> List.of();
+            case 2 -> List.of(HalfbandDecimator.design(2 * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB));
+            default -> List.of(
+                    HalfbandDecimator.design(4 * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB),
+                    HalfbandDecimator.design(2 * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB));
+        };
+        return new Decimator(factor, outputRateHz, passbandEdgeHz, stages);
+    }
+
+    public int factor() {
+        return factor;
+    }
+
+    public double outputRateHz() {
+        return outputRateHz;
+    }
+
+    public double inputRateHz() {
+        return outputRateHz * factor;
+    }
+
+    public double passbandEdgeHz() {
+        return passbandEdgeHz;
+    }
+
+    /** The stages in processing order (highest rate first); empty for factor 1. */
+    public List<HalfbandDecimator> stages() {
+        return stages;
+    }
+
+    /** Group delay in output samples: Σ K_i / 2^(remaining stages), e.g. K_a/2 + K_b for factor 4. */
+    public double groupDelayOutputSamples() {
+        double d = 0;
+        for (HalfbandDecimator s : stages) {
+            d = d / 2 + s.groupDelayOutputSamples();
+        }
+        return d;
+    }
+
+    /** Product of the stage responses at hz (each at its own input rate); 1 for factor 1. */
+    public Complex response(double hz) {
+        Complex h = Complex.ONE;
+        for (HalfbandDecimator s : stages) {
+            h = h.times(s.response(hz));
+        }
+        return h;
+    }
+
+    /** A fresh streaming state. */
+    public Runtime newRuntime() {
+        return new Runtime(this);
+    }
+
+    /**
+     * Streaming state of the cascade. {@link #process} consumes factor·nOut input samples and writes nOut
+     * outputs; allocation-free (an internal scratch buffer is reused in fixed chunks).
+     */
+    public static final class Runtime {
+        private static final int CHUNK = 512;
+        private final Decimator design;
+        private final HalfbandDecimator.Runtime[] stages;
+        private final double[] scratch;
+
+        private Runtime(Decimator design) {
+            this.design = design;
+            stages = new HalfbandDecimator.Runtime[design.stages.size()];
+            for (int i = 0; i < stages.length; i++) {
+                stages[i] = design.stages.get(i).newRuntime();
+            }
+            scratch = new double[CHUNK];
+        }
+
+        /**
+         * @param in       input at factor·outputRateHz, {@code factor·nOut} samples from {@code inOffset}
+         * @param out      receives {@code nOut} samples from {@code outOffset}
+         * @param nOut     output count ≥ 0
+         */
+        public void process(double[] in, int inOffset, double[] out, int outOffset, int nOut) {
+            int f = design.factor;
+            if (nOut < 0 || inOffset < 0 || outOffset < 0 || (long) inOffset + (long) f * nOut > in.length
+                    || outOffset > out.length - nOut) {
+                throw new IllegalArgumentException("nOut=" + nOut + ", inOffset=" + inOffset + ", outOffset="
+                        + outOffset + " outside buffers of length " + in.length + ", " + out.length);
+            }
+            switch (stages.length) {
+                case 0 -> System.arraycopy(in, inOffset, out, outOffset, nOut);
+                case 1 -> stages[0].process(in, inOffset, 2 * nOut, out, outOffset);
+                default -> {
+                    int done = 0;
+                    while (done < nOut) {
+                        int c = Math.min(nOut - done, CHUNK / 2);
+                        stages[0].process(in, inOffset + 4 * done, 4 * c, scratch, 0);
+                        stages[1].process(scratch, 0, 2 * c, out, outOffset + done);
+                        done += c;
+                    }
+                }
+            }
+        }
+
+        /** Clears all stage histories. */
+        public void reset() {
+            for (HalfbandDecimator.Runtime s : stages) {
+                s.reset();
+            }
+        }
+    }
+}

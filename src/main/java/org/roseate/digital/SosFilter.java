@@ -1,0 +1,137 @@
+package org.roseate.digital;
+
+import java.util.List;
+
+/**
+ * Running state of a {@link SosDesign}: each section in transposed direct form II, in double
+ * (recursion in package-info, the same as scipy.signal.sosfilt). One thread at a time.
+ *
+ * <p>{@code process} allocates nothing and works for any n ≥ 0; processing a signal in blocks of any
+ * sizes gives bitwise the same output as processing it whole.
+ *
+ * <p>Denormal guard: every {@value #FLUSH_INTERVAL} samples, counted from construction or
+ * {@link #reset()} and therefore independent of how the signal is cut into blocks, each state value with
+ * magnitude below {@value #FLUSH_BELOW} is set to exactly 0. After exact-silence input the state thus
+ * reaches exact zero instead of decaying through the subnormal range (where arithmetic is slow on many
+ * CPUs). The change is below 1e-200 relative to full scale, far under any audible or measurable level.
+ */
+public final class SosFilter {
+    /** Samples between two denormal flushes. */
+    public static final int FLUSH_INTERVAL = 64;
+    /** State magnitudes below this are flushed to zero. */
+    public static final double FLUSH_BELOW = 1e-200;
+
+    private final int n;
+    private final double[] b0;
+    private final double[] b1;
+    private final double[] b2;
+    private final double[] a1;
+    private final double[] a2;
+    private final double[] s1;
+    private final double[] s2;
+    private int untilFlush = FLUSH_INTERVAL;
+
+    /** A filter with zero state running {@code design}. */
+    public SosFilter(SosDesign design) {
+        List<Biquad> sec = design.sections();
+        n = sec.size();
+        b0 = new double[n];
+        b1 = new double[n];
+        b2 = new double[n];
+        a1 = new double[n];
+        a2 = new double[n];
+        s1 = new double[n];
+        s2 = new double[n];
+        for (int i = 0; i < n; i++) {
+            Biquad q = sec.get(i);
+            b0[i] = q.b0();
+            b1[i] = q.b1();
+            b2[i] = q.b2();
+            a1[i] = q.a1();
+            a2[i] = q.a2();
+        }
+    }
+
+    /**
+     * Filters {@code in[0..n)} into {@code out[0..n)}; {@code in == out} is allowed.
+     *
+     * @param n number of samples, 0 ≤ n ≤ min(in.length, out.length)
+     */
+    public void process(double[] in, double[] out, int n) {
+        if (n < 0 || n > in.length || n > out.length) {
+            throw new IllegalArgumentException("n=" + n + " must be in [0, " + Math.min(in.length, out.length) + "]");
+        }
+        if (in != out) {
+            System.arraycopy(in, 0, out, 0, n);
+        }
+        run(out, 0, n);
+    }
+
+    /**
+     * Filters {@code buf[offset..offset+n)} in place.
+     *
+     * @param offset first sample, ≥ 0
+     * @param n      number of samples, ≥ 0, offset + n ≤ buf.length
+     */
+    public void process(double[] buf, int offset, int n) {
+        if (offset < 0 || n < 0 || offset > buf.length - n) {
+            throw new IllegalArgumentException("offset=" + offset + ", n=" + n + " outside buffer of length "
+                    + buf.length);
+        }
+        run(buf, offset, n);
+    }
+
+    /** Clears all state, as after construction. */
+    public void reset() {
+        java.util.Arrays.fill(s1, 0);
+        java.util.Arrays.fill(s2, 0);
+        untilFlush = FLUSH_INTERVAL;
+    }
+
+    private void run(double[] buf, int offset, int count) {
+        int done = 0;
+        while (done < count) {
+            int seg = Math.min(count - done, untilFlush);
+            runSections(buf, offset + done, seg);
+            done += seg;
+            untilFlush -= seg;
+            if (untilFlush == 0) {
+                flushTinyState();
+                untilFlush = FLUSH_INTERVAL;
+            }
+        }
+    }
+
+    private void runSections(double[] buf, int from, int count) {
+        int end = from + count;
+        for (int k = 0; k < n; k++) {
+            double c0 = b0[k];
+            double c1 = b1[k];
+            double c2 = b2[k];
+            double d1 = a1[k];
+            double d2 = a2[k];
+            double z1 = s1[k];
+            double z2 = s2[k];
+            for (int i = from; i < end; i++) {
+                double x = buf[i];
+                double y = c0 * x + z1;
+                z1 = c1 * x - d1 * y + z2;
+                z2 = c2 * x - d2 * y;
+                buf[i] = y;
+            }
+            s1[k] = z1;
+            s2[k] = z2;
+        }
+    }
+
+    private void flushTinyState() {
+        for (int k = 0; k < n; k++) {
+            if (Math.abs(s1[k]) < FLUSH_BELOW) {
+                s1[k] = 0;
+            }
+            if (Math.abs(s2[k]) < FLUSH_BELOW) {
+                s2[k] = 0;
+            }
+        }
+    }
+}

@@ -1,0 +1,103 @@
+package org.roseate.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.MethodSource;
+import org.roseate.circuit.DesignReader;
+import org.roseate.compare.BandPower;
+import org.roseate.model.CircuitModel;
+
+class AnalyzeCommandTest {
+    record Run(int status, String out, String err) {
+    }
+
+    static Run run(String... args) {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int status = RoseateCommand.run(new PrintWriter(out), new PrintWriter(err), args);
+        return new Run(status, out.toString(), err.toString());
+    }
+
+    static Stream<Path> presets() throws Exception {
+        return Files.list(Path.of("presets")).filter(p -> p.toString().endsWith(".json")).sorted();
+    }
+
+    @ParameterizedTest
+    @MethodSource("presets")
+    void jsonForEveryPresetHasTheDocumentedKeysAndAgreesWithTheModel(Path preset) throws Exception {
+        Run r = run("analyze", preset.toString(), "--format", "json", "--freqs", "100,1000,10000");
+        assertEquals(0, r.status(), r.err());
+        JsonNode j = new ObjectMapper().readTree(r.out());
+        for (String key : new String[] {"response", "bands", "slopeDbPerOctave", "maxDeviationDb", "maxBandDeviationDb", "poles", "zeros"}) {
+            assertTrue(j.has(key), preset + " lacks " + key);
+        }
+        assertEquals(3, j.get("response").size());
+        assertEquals(31, j.get("bands").size(), "20 Hz–20 kHz has 31 third-octave bands (IEC 61260-1)");
+        // The printed numbers are the model's own: re-evaluate independently of the command.
+        CircuitModel m = CircuitModel.of(DesignReader.read(preset), "p");
+        JsonNode p = j.get("response").get(1);
+        assertEquals(1000, p.get("hz").asDouble());
+        assertEquals(20 * Math.log10(m.response(1000).abs()), p.get("db").asDouble(), 1e-12);
+        JsonNode b = j.get("bands").get(17);
+        assertEquals(1000, b.get("nominalHz").asDouble());
+        assertEquals(BandPower.levelDb(m::magnitudeSquared, b.get("lowHz").asDouble(), b.get("highHz").asDouble()),
+                b.get("db").asDouble(), 1e-12);
+        // Centring: the largest and smallest band deviations are equal and opposite.
+        double max = Double.NEGATIVE_INFINITY;
+        double min = Double.POSITIVE_INFINITY;
+        for (JsonNode band : j.get("bands")) {
+            max = Math.max(max, band.get("deviationDb").asDouble());
+            min = Math.min(min, band.get("deviationDb").asDouble());
+        }
+        assertEquals(-min, max, 1e-9);
+        assertEquals(max, j.get("maxBandDeviationDb").asDouble(), 1e-9);
+    }
+
+    @ParameterizedTest
+    @MethodSource("presets")
+    void tableAndCsvForEveryPreset(Path preset) {
+        Run t = run("analyze", preset.toString());
+        assertEquals(0, t.status(), t.err());
+        assertTrue(t.out().contains("Peak band deviation"));
+        assertTrue(t.out().contains("An ideal pink filter reads flat"));
+        Run c = run("analyze", preset.toString(), "--format", "csv", "--bands", "octave");
+        assertEquals(0, c.status(), c.err());
+        assertTrue(c.out().startsWith("nominalHz,lowHz,highHz,db,deviationDb\n"));
+        assertEquals(1 + 10, c.out().split("\n").length, "10 octave bands 31.5 Hz–16 kHz");
+    }
+
+    @Test
+    void badDesignGivesOneLineAndStatusTwo(@TempDir Path dir) throws Exception {
+        Path f = dir.resolve("design.json");
+        Files.writeString(f, "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(10k)\", "
+                + "\"feedback\": \"R2(10k) + R3(4kk7)\"}]}");
+        Run r = run("analyze", f.toString());
+        assertEquals(2, r.status());
+        assertEquals("roseate: design.json: stage 1 feedback, column 14: expected a value such as 4k7 or 22n, found '4kk7'\n",
+                r.err().replace(System.lineSeparator(), "\n"));
+        assertFalse(r.err().contains("at org."), "no stack trace");
+    }
+
+    @Test
+    void badArgumentsGiveStatusTwo() {
+        assertEquals(2, run("analyze", "presets/bench-pink.json", "--range", "20000-20").status());
+        assertEquals(2, run("analyze", "presets/bench-pink.json", "--bands", "sixth").status());
+        assertEquals(2, run("analyze", "presets/bench-pink.json", "--slope", "steep").status());
+        assertEquals(2, run("analyze", "presets/bench-pink.json", "--freqs", "1k,abc").status());
+        assertEquals(2, run("analyze").status());
+        assertEquals(2, run("analyze", "missing.json").status());
+        assertEquals(2, run("frobnicate").status());
+    }
+}
