@@ -53,8 +53,18 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--freqs", paramLabel = "F1,F2,…", description = "response points in Hz (default: a log grid over the range)")
     String freqs;
 
+    @Option(names = "--rate", paramLabel = "HZ",
+            description = "also show the digital model's fidelity at this output rate (per third-octave band, against the analog model)")
+    Integer rate;
+
     @Option(names = "--points-per-decade", defaultValue = "20", description = "density of the default response grid (default: ${DEFAULT-VALUE})")
     int pointsPerDecade;
+
+    @Option(names = "--plot", paramLabel = "FILE.png|FILE.svg", description = "also draw the response, deviation and band bars")
+    Path plot;
+
+    @Option(names = "--force", description = "replace an existing plot file")
+    boolean force;
 
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
@@ -69,6 +79,7 @@ final class AnalyzeCommand implements Callable<Integer> {
             throw new UserInputException("--points-per-decade: expected 1 to 10000, found " + pointsPerDecade);
         }
         double[] points = freqs == null ? LogGrid.points(r.loHz(), r.hiHz(), pointsPerDecade) : Inputs.frequencies(freqs, "--freqs");
+        CompareCommand.checkPlotName(plot);
         CircuitModel model = Inputs.model(file);
         DesignAnalysis a;
         try {
@@ -76,13 +87,22 @@ final class AnalyzeCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new UserInputException(e.getMessage());
         }
+        org.roseate.digital.FidelityReport fidelity = rate == null ? null : fidelity(model);
         PrintWriter out = spec.commandLine().getOut();
         switch (format) {
-            case json -> out.print(json(a, model));
+            case json -> out.print(json(a, model, fidelity));
             case csv -> out.print(freqs == null ? bandsCsv(a) : responseCsv(a.response()));
-            default -> out.print(table(a, model));
+            default -> {
+                out.print(table(a, model));
+                if (fidelity != null) {
+                    out.print("\n" + Fidelity.table(fidelity, org.roseate.noise.NoiseChain.FIDELITY_TOLERANCE_DB));
+                }
+            }
         }
         out.flush();
+        if (plot != null) {
+            CompareCommand.writePlot(org.roseate.plot.Charts.analysis(a, model), plot, force);
+        }
         return 0;
     }
 
@@ -216,10 +236,35 @@ final class AnalyzeCommand implements Callable<Integer> {
         }
     }
 
-    private String json(DesignAnalysis a, CircuitModel model) {
+    private org.roseate.digital.FidelityReport fidelity(CircuitModel model) {
+        if (rate < 100 || rate > 384000) {
+            throw new UserInputException("--rate: expected an output rate from 100 to 384000 Hz, found " + rate);
+        }
+        try {
+            return org.roseate.noise.NoiseChain.fidelity(model.zpk(), rate);
+        } catch (org.roseate.digital.UnrenderableModelException e) {
+            throw new UserInputException(file.getFileName() + ": cannot render: " + e.getMessage());
+        }
+    }
+
+    private String json(DesignAnalysis a, CircuitModel model, org.roseate.digital.FidelityReport fidelity) {
         ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
         try {
-            return m.writeValueAsString(analysisJson(m, a, model)) + "\n";
+            ObjectNode root = analysisJson(m, a, model);
+            if (fidelity != null) {
+                ObjectNode f = root.putObject("fidelity");
+                f.put("rateHz", fidelity.outputRateHz());
+                f.put("oversampling", fidelity.factor());
+                f.put("maxAbsDifferenceDb", fidelity.maxAbsDifferenceDb());
+                ArrayNode bands = f.putArray("bands");
+                for (org.roseate.digital.FidelityReport.Band b : fidelity.bands()) {
+                    ObjectNode o = bands.addObject();
+                    o.put("lowHz", b.lowHz());
+                    o.put("highHz", b.comparedHighHz());
+                    o.put("differenceDb", b.differenceDb());
+                }
+            }
+            return m.writeValueAsString(root) + "\n";
         } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
             throw new IllegalStateException(e);
         }

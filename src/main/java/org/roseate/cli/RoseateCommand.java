@@ -12,7 +12,9 @@ import picocli.CommandLine.Command;
         description = {
             "Design, hear and measure analog noise-shaping filters (pink-noise RC networks).",
             "Run without arguments to open the window."},
-        subcommands = {AnalyzeCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {AnalyzeCommand.class, RenderCommand.class, PlayCommand.class, DevicesCommand.class,
+            MeasureCommand.class, FitCommand.class, ToleranceCommand.class, CompareCommand.class, PartsCommand.class,
+            CommandLine.HelpCommand.class})
 public final class RoseateCommand implements Runnable {
     /** Exit status for bad input: files, values, arguments. */
     public static final int EXIT_BAD_INPUT = 2;

@@ -46,13 +46,13 @@ public final class Decimator {
     /**
      * A decimator from factor·outputRateHz down to outputRateHz.
      *
-     * @param factor         1, 2 or 4
+     * @param factor         1, 2, 4 or 8 (a cascade of log2(factor) half-band stages)
      * @param outputRateHz   output rate in Hz, finite and &gt; 0
      * @param passbandEdgeHz edge of the protected band in Hz, 0 &lt; edge &lt; outputRateHz/2
      */
     public static Decimator design(int factor, double outputRateHz, double passbandEdgeHz) {
-        if (factor != 1 && factor != 2 && factor != 4) {
-            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2 or 4");
+        if (factor != 1 && factor != 2 && factor != 4 && factor != 8) {
+            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2, 4 or 8");
         }
         if (!(outputRateHz > 0) || !Double.isFinite(outputRateHz)) {
             throw new IllegalArgumentException("outputRateHz=" + outputRateHz + " must be finite and > 0");
@@ -61,13 +61,13 @@ public final class Decimator {
             throw new IllegalArgumentException("passbandEdgeHz=" + passbandEdgeHz + " must be in (0, "
                     + outputRateHz / 2 + ") Hz");
         }
-        List<HalfbandDecimator> stages = switch (factor) {
-            case 1 -> List.of();
-            case 2 -> List.of(HalfbandDecimator.design(2 * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB));
-            default -> List.of(
-                    HalfbandDecimator.design(4 * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB),
-                    HalfbandDecimator.design(2 * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB));
-        };
+        // Highest rate first; each stage halves the rate. The early stages have wide transition
+        // bands (everything above the final passband edge may fold only onto frequencies that later
+        // stages remove), so they come out short.
+        List<HalfbandDecimator> stages = new java.util.ArrayList<>();
+        for (int m = factor; m >= 2; m /= 2) {
+            stages.add(HalfbandDecimator.design(m * outputRateHz, passbandEdgeHz, REJECTION_DB, RIPPLE_DB));
+        }
         return new Decimator(factor, outputRateHz, passbandEdgeHz, stages);
     }
 

@@ -6,7 +6,7 @@ import org.roseate.digital.UnrenderableModelException.Reason;
 import org.roseate.model.Zpk;
 
 /**
- * Picks the oversampling factor (1, 2 or 4) for rendering an analog model at an output rate, by
+ * Picks the oversampling factor (1, 2, 4 or 8) for rendering an analog model at an output rate, by
  * comparing band levels of the digital path ({@link OversampledFilter}, rule {@link PrewarpRule#PER_ROOT})
  * with the analog model.
  *
@@ -16,7 +16,12 @@ import org.roseate.model.Zpk;
  * fs/2, so the top third-octave band (nominal 20 kHz, 17.8–22.4 kHz) is compared on 17.8–20 kHz.
  */
 public final class Oversampling {
-    private static final int[] FACTORS = {1, 2, 4};
+    /**
+     * Factors tried, smallest first. 2× and 4× suffice for single pink stages; 8× is for cascades
+     * with several excess poles (each maps to a zero at z = −1 that bends the top octave) at 44.1
+     * and 48 kHz.
+     */
+    private static final int[] FACTORS = {1, 2, 4, 8};
 
     private Oversampling() {
     }

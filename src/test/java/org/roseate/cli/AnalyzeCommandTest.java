@@ -100,4 +100,30 @@ class AnalyzeCommandTest {
         assertEquals(2, run("analyze", "missing.json").status());
         assertEquals(2, run("frobnicate").status());
     }
+
+    /**
+     * {@code --rate} adds the digital model's fidelity; one band is recomputed here from the
+     * digital path and the analog model with the compare package's own integration.
+     */
+    @Test
+    void rateShowsFidelityFigures() throws Exception {
+        Run t = run("analyze", "presets/bench-pink.json", "--rate", "48000");
+        assertEquals(0, t.status(), t.err());
+        assertTrue(t.out().contains("Digital model at 48000 Hz: 4x oversampled"), t.out());
+        Run j = run("analyze", "presets/bench-pink.json", "--rate", "44100", "--format", "json");
+        assertEquals(0, j.status(), j.err());
+        JsonNode f = new ObjectMapper().readTree(j.out()).get("fidelity");
+        assertEquals(31, f.get("bands").size());
+        assertTrue(f.get("maxAbsDifferenceDb").asDouble() <= 0.1);
+        CircuitModel m = CircuitModel.of(DesignReader.read(Path.of("presets/bench-pink.json")), "p");
+        var path = org.roseate.digital.OversampledFilter.design(m.zpk(), 44100, f.get("oversampling").asInt(),
+                org.roseate.digital.PrewarpRule.PER_ROOT, 1000);
+        JsonNode band = f.get("bands").get(28);
+        double lo = band.get("lowHz").asDouble();
+        double hi = band.get("highHz").asDouble();
+        double expected = BandPower.levelDb(path::magnitudeSquared, lo, hi) - BandPower.levelDb(m::magnitudeSquared, lo, hi);
+        // Two quadratures of the same smooth integrands: agreement to 1e-4 dB.
+        assertEquals(expected, band.get("differenceDb").asDouble(), 1e-4);
+        assertEquals(2, run("analyze", "presets/bench-pink.json", "--rate", "10").status());
+    }
 }

@@ -1,0 +1,203 @@
+package org.roseate.cli;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.roseate.bands.BandFraction;
+import org.roseate.compare.BandReading;
+import org.roseate.compare.DesignAnalysis;
+import org.roseate.compare.FrequencyRange;
+import org.roseate.compare.LogGrid;
+import org.roseate.compare.TargetSlope;
+import org.roseate.model.CircuitModel;
+import org.roseate.plot.ChartFiles;
+import org.roseate.plot.Charts;
+import org.roseate.plot.FrequencyChart;
+import org.roseate.tools.ComparedColumn;
+import org.roseate.tools.DesignColumn;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code compare A.json B.json …}: band levels and deviations side by side. */
+@Command(name = "compare", mixinStandardHelpOptions = true,
+        description = "Compare designs side by side: band levels normalised at 1 kHz, deviations from the target, "
+                + "slope, peak deviation (pointwise and band) and ripple.")
+final class CompareCommand implements Callable<Integer> {
+    enum Format { table, json, csv }
+
+    @Parameters(arity = "1..*", paramLabel = "DESIGN.json", description = "design files")
+    List<Path> files;
+
+    @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
+    Format format;
+
+    @Option(names = "--range", defaultValue = "20-20000", paramLabel = "LO-HI", description = "frequency range in Hz (default: ${DEFAULT-VALUE})")
+    String range;
+
+    @Option(names = "--bands", defaultValue = "third", paramLabel = "octave|third", description = "band width (default: ${DEFAULT-VALUE})")
+    String bands;
+
+    @Option(names = "--slope", defaultValue = "pink", description = "target slope (default: ${DEFAULT-VALUE})")
+    String slope;
+
+    @Option(names = "--plot", paramLabel = "FILE.png|FILE.svg", description = "also draw the comparison")
+    Path plot;
+
+    @Option(names = "--force", description = "replace an existing plot file")
+    boolean force;
+
+    @Spec
+    picocli.CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        FrequencyRange r = Inputs.range(range);
+        TargetSlope target = Inputs.slope(slope);
+        BandFraction fraction = BandFraction.parse(bands)
+                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        checkPlotName(plot);
+        List<ComparedColumn> columns = new ArrayList<>();
+        for (Path f : files) {
+            CircuitModel m = Inputs.model(f);
+            DesignAnalysis a;
+            try {
+                a = DesignAnalysis.of(m, r, target, fraction, LogGrid.points(r.loHz(), r.hiHz(), 20));
+            } catch (IllegalArgumentException e) {
+                throw new UserInputException(e.getMessage());
+            }
+            columns.add(new DesignColumn(f.getFileName().toString(), a));
+        }
+        PrintWriter out = spec.commandLine().getOut();
+        switch (format) {
+            case json -> out.print(json(columns));
+            case csv -> out.print(csv(columns));
+            default -> out.print(table(columns, target, fraction));
+        }
+        out.flush();
+        if (plot != null) {
+            writePlot(Charts.comparison(columns), plot, force);
+        }
+        return 0;
+    }
+
+    static String table(List<ComparedColumn> cols, TargetSlope target, BandFraction fraction) {
+        StringBuilder sb = new StringBuilder();
+        sb.append(Numbers.f("Target %s, %s bands. Level: band level minus the 1 kHz band's; dev: centred deviation from the target.%n%n",
+                target.describe(), fraction.displayName()));
+        for (int i = 0; i < cols.size(); i++) {
+            sb.append(Numbers.f("  [%d] %s%n", i + 1, cols.get(i).name()));
+        }
+        sb.append(Numbers.f("%n%8s", "band"));
+        for (int i = 0; i < cols.size(); i++) {
+            sb.append(Numbers.f(" %10s %8s", "[" + (i + 1) + "] level", "dev"));
+        }
+        sb.append('\n');
+        int n = cols.get(0).bands().readings().size();
+        List<double[]> norm = cols.stream().map(ComparedColumn::normalisedLevelsDb).toList();
+        for (int b = 0; b < n; b++) {
+            sb.append(Numbers.f("%8s", cols.get(0).bands().readings().get(b).band().label()));
+            for (int i = 0; i < cols.size(); i++) {
+                sb.append(Numbers.f(" %+10.3f %+8.3f", norm.get(i)[b], cols.get(i).bands().readings().get(b).deviationDb()));
+            }
+            sb.append('\n');
+        }
+        sb.append('\n');
+        row(sb, "slope", "least-squares slope, dB/octave", cols, ComparedColumn::slopeDbPerOctave, "%+20.3f");
+        row(sb, "peak", "pointwise peak deviation, ±dB", cols, ComparedColumn::maxDeviationDb, "%20.3f");
+        row(sb, "band pk", "band peak deviation, ±dB", cols, ComparedColumn::maxBandDeviationDb, "%20.3f");
+        row(sb, "ripple", "largest minus smallest band deviation, dB", cols, ComparedColumn::rippleDb, "%20.3f");
+        return sb.toString();
+    }
+
+    private static void row(StringBuilder sb, String label, String meaning, List<ComparedColumn> cols,
+            java.util.function.ToDoubleFunction<ComparedColumn> f, String fmt) {
+        sb.append(Numbers.f("%8s", label));
+        for (ComparedColumn c : cols) {
+            double v = f.applyAsDouble(c);
+            sb.append(Double.isNaN(v) ? Numbers.f("%20s", "—") : Numbers.f(fmt, v));
+        }
+        sb.append("   ").append(meaning).append('\n');
+    }
+
+    static String csv(List<ComparedColumn> cols) {
+        StringBuilder sb = new StringBuilder("column,nominalHz,lowHz,highHz,db,levelRe1kHzDb,deviationDb\n");
+        for (ComparedColumn c : cols) {
+            double[] norm = c.normalisedLevelsDb();
+            List<BandReading> rs = c.bands().readings();
+            for (int i = 0; i < rs.size(); i++) {
+                BandReading b = rs.get(i);
+                sb.append(quote(c.name())).append(',').append(Numbers.plain(b.band().nominalHz())).append(',')
+                        .append(Numbers.plain(b.band().lowHz())).append(',').append(Numbers.plain(b.band().highHz())).append(',')
+                        .append(Numbers.plain(b.levelDb())).append(',').append(Numbers.plain(norm[i])).append(',')
+                        .append(Numbers.plain(b.deviationDb())).append('\n');
+            }
+        }
+        return sb.toString();
+    }
+
+    private static String quote(String s) {
+        return s.contains(",") || s.contains("\"") ? "\"" + s.replace("\"", "\"\"") + "\"" : s;
+    }
+
+    static String json(List<ComparedColumn> cols) {
+        ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+        ObjectNode root = m.createObjectNode();
+        ArrayNode arr = root.putArray("columns");
+        for (ComparedColumn c : cols) {
+            ObjectNode o = arr.addObject();
+            o.put("name", c.name());
+            o.put("slopeDbPerOctave", c.slopeDbPerOctave());
+            o.put("maxDeviationDb", c.maxDeviationDb());
+            o.put("maxBandDeviationDb", c.maxBandDeviationDb());
+            o.put("rippleDb", c.rippleDb());
+            ArrayNode bs = o.putArray("bands");
+            double[] norm = c.normalisedLevelsDb();
+            List<BandReading> rs = c.bands().readings();
+            for (int i = 0; i < rs.size(); i++) {
+                ObjectNode b = bs.addObject();
+                b.put("nominalHz", rs.get(i).band().nominalHz());
+                b.put("db", rs.get(i).levelDb());
+                b.put("levelRe1kHzDb", norm[i]);
+                b.put("deviationDb", rs.get(i).deviationDb());
+            }
+        }
+        try {
+            return m.writeValueAsString(root) + "\n";
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    /** Refuses a plot name that is neither .png nor .svg before any work is done. */
+    static void checkPlotName(Path plot) {
+        if (plot != null) {
+            try {
+                ChartFiles.formatOf(plot);
+            } catch (IllegalArgumentException e) {
+                throw new UserInputException("--plot: " + e.getMessage());
+            }
+        }
+    }
+
+    /** Writes a chart for the --plot option of analyze, compare and tolerance. */
+    static void writePlot(FrequencyChart chart, Path file, boolean force) {
+        try {
+            ChartFiles.write(chart, file, ChartFiles.DEFAULT_WIDTH, ChartFiles.DEFAULT_HEIGHT, force);
+        } catch (org.roseate.io.OutputExistsException e) {
+            throw new UserInputException(e.getMessage());
+        } catch (IOException e) {
+            throw new UserInputException(file + ": " + (e.getMessage() == null ? e.toString() : e.getMessage()));
+        } catch (IllegalArgumentException e) {
+            throw new UserInputException("--plot: " + e.getMessage());
+        }
+    }
+}

@@ -1,0 +1,65 @@
+package org.roseate.tools;
+
+import java.util.List;
+import java.util.Objects;
+import java.util.Optional;
+import org.roseate.bands.BandFraction;
+import org.roseate.circuit.Design;
+import org.roseate.compare.FrequencyRange;
+import org.roseate.compare.TargetSlope;
+
+/**
+ * What to fit: a starting design whose topology is kept, the components whose values are free,
+ * the target, and the search settings.
+ *
+ * @param start           the topology and the starting values
+ * @param free            designators of the free components (R and C only), others stay fixed
+ * @param gainResistor    an input resistor of the first inverting stage that only sets the gain
+ *                        (it cannot change a centred deviation): after the fit it is set to the
+ *                        standard value nearest to unity gain at 1 kHz, within the limits
+ * @param range           the frequency range compared
+ * @param target          the target slope
+ * @param fraction        the band width of the band deviation
+ * @param series          the standard series per kind for the discrete search
+ * @param limits          the allowed values per kind
+ * @param starts          continuous starts, ≥ 1 (start 0 is the design's own values)
+ * @param seed            seed for the random starts and the search
+ * @param threads         worker threads, ≥ 1 (results do not depend on it)
+ * @param pointwiseWeight weight w ≥ 0 of the pointwise peak in the objective
+ *                        band peak + w·pointwise peak
+ */
+public record FitSpec(Design start, List<String> free, Optional<String> gainResistor, FrequencyRange range,
+        TargetSlope target, BandFraction fraction, SeriesChoice series, PartLimits limits, int starts, long seed,
+        int threads, double pointwiseWeight) {
+    /**
+     * Default w: a tenth. The bar is the band peak; a small weight on the pointwise peak breaks
+     * ties between designs with the same band peak in favour of the one with less ripple hidden
+     * inside the bands, and costs the band peak almost nothing.
+     */
+    public static final double DEFAULT_POINTWISE_WEIGHT = 0.1;
+
+    public FitSpec {
+        Objects.requireNonNull(start, "start");
+        free = List.copyOf(free);
+        Objects.requireNonNull(gainResistor, "gainResistor");
+        Objects.requireNonNull(range, "range");
+        Objects.requireNonNull(target, "target");
+        Objects.requireNonNull(fraction, "fraction");
+        Objects.requireNonNull(series, "series");
+        Objects.requireNonNull(limits, "limits");
+        if (free.isEmpty()) {
+            throw new IllegalArgumentException("no free components to fit");
+        }
+        for (String d : free) {
+            if (start.component(d).isEmpty()) {
+                throw new IllegalArgumentException("free component " + d + " is not in the design");
+            }
+        }
+        if (starts < 1 || threads < 1) {
+            throw new IllegalArgumentException("starts=" + starts + ", threads=" + threads + " must be >= 1");
+        }
+        if (!(pointwiseWeight >= 0) || !Double.isFinite(pointwiseWeight)) {
+            throw new IllegalArgumentException("pointwiseWeight=" + pointwiseWeight + " must be finite and >= 0");
+        }
+    }
+}

@@ -1,0 +1,298 @@
+package org.roseate.tools;
+
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import org.roseate.circuit.Component;
+import org.roseate.circuit.Design;
+import org.roseate.circuit.DividerStage;
+import org.roseate.circuit.InvertingStage;
+import org.roseate.circuit.Network;
+import org.roseate.circuit.NonInvertingStage;
+import org.roseate.circuit.OpAmp;
+import org.roseate.circuit.Parallel;
+import org.roseate.circuit.Series;
+import org.roseate.circuit.Stage;
+import org.roseate.value.ComponentKind;
+
+/**
+ * A design compiled for repeated evaluation of the power gain |H(j·2π·f)|² with the component
+ * values supplied as an array (one slot per component, in {@link Design#components()} order).
+ * The tools' optimiser and Monte Carlo loops call this thousands of times per second; the
+ * formulas are the model package's (H = −Zf/Zin, 1 + Zf/Zg, Zshunt'/(Zseries + Zshunt'), the
+ * single-pole op-amp A = A0/(1 + jω·A0/(2π·GBW))), written again here on primitive doubles so
+ * that {@link org.roseate.model.CircuitModel} stays an independent check of it.
+ * Immutable and thread-safe; each thread evaluates through its own {@link Workspace}.
+ */
+final class PowerProgram {
+    private static final int PUSH_Z = 0;
+    private static final int PUSH_Y = 1;
+    private static final int SUM = 2;
+    private static final int INVERT = 3;
+    private static final int KIND_INVERTING = 0;
+    private static final int KIND_NONINVERTING = 1;
+    private static final int KIND_DIVIDER = 2;
+
+    private final List<Component> parts;
+    private final Map<String, Integer> slots;
+    /** 0 resistor, 1 capacitor, 2 inductor, per slot. */
+    private final int[] kindCode;
+    /** Per stage: kind, then the programs of its two networks (a = output side, b = input side). */
+    private final int[] stageKind;
+    private final int[][] programA;
+    private final int[][] programB;
+    private final int[][] programLoad;
+    private final double[] openLoopGain;
+    private final double[] tauSeconds;
+    private final int depth;
+
+    private PowerProgram(Design design) {
+        parts = design.components();
+        slots = new HashMap<>();
+        kindCode = new int[parts.size()];
+        for (int i = 0; i < parts.size(); i++) {
+            slots.put(parts.get(i).designator(), i);
+            kindCode[i] = parts.get(i).kind() == ComponentKind.RESISTOR ? 0
+                    : parts.get(i).kind() == ComponentKind.CAPACITOR ? 1 : 2;
+        }
+        int n = design.stages().size();
+        stageKind = new int[n];
+        programA = new int[n][];
+        programB = new int[n][];
+        programLoad = new int[n][];
+        openLoopGain = new double[n];
+        tauSeconds = new double[n];
+        int d = 1;
+        for (int s = 0; s < n; s++) {
+            Stage st = design.stages().get(s);
+            Network a;
+            Network b;
+            if (st instanceof InvertingStage inv) {
+                stageKind[s] = KIND_INVERTING;
+                a = inv.feedback();
+                b = inv.input();
+            } else if (st instanceof NonInvertingStage non) {
+                stageKind[s] = KIND_NONINVERTING;
+                a = non.feedback();
+                b = non.ground();
+            } else {
+                DividerStage div = (DividerStage) st;
+                stageKind[s] = KIND_DIVIDER;
+                a = div.shunt();
+                b = div.series();
+                programLoad[s] = div.load().map(this::compile).orElse(null);
+            }
+            programA[s] = compile(a);
+            programB[s] = compile(b);
+            OpAmp op = st.opamp().orElse(null);
+            openLoopGain[s] = op == null ? Double.POSITIVE_INFINITY : op.openLoopGain();
+            tauSeconds[s] = op == null ? 0 : op.poleTimeConstantSeconds();
+            d = Math.max(d, Math.max(depth(a), depth(b)));
+            if (programLoad[s] != null) {
+                d = Math.max(d, depth(div(st).load().get()));
+            }
+        }
+        depth = d + 1;
+    }
+
+    private static DividerStage div(Stage s) {
+        return (DividerStage) s;
+    }
+
+    static PowerProgram of(Design design) {
+        return new PowerProgram(design);
+    }
+
+    /** The components in slot order. */
+    List<Component> parts() {
+        return parts;
+    }
+
+    int size() {
+        return parts.size();
+    }
+
+    /** The slot of a designator, or -1. */
+    int slot(String designator) {
+        Integer i = slots.get(designator);
+        return i == null ? -1 : i;
+    }
+
+    /** The design's own values, in slot order. */
+    double[] nominal() {
+        double[] v = new double[parts.size()];
+        for (int i = 0; i < v.length; i++) {
+            v[i] = parts.get(i).value();
+        }
+        return v;
+    }
+
+    Workspace workspace() {
+        return new Workspace(depth, kindCode.length);
+    }
+
+    /** Per-thread stacks; allocation happens here, never in {@link #power}. */
+    static final class Workspace {
+        final double[] re;
+        final double[] im;
+        final double[] values;
+        final double[] inverse;
+
+        Workspace(int depth, int parts) {
+            re = new double[depth];
+            im = new double[depth];
+            values = new double[parts];
+            inverse = new double[parts];
+        }
+    }
+
+    /** A postfix program leaving the network's impedance on the stack. */
+    private int[] compile(Network n) {
+        List<Integer> ops = new ArrayList<>();
+        emit(n, false, ops);
+        return ops.stream().mapToInt(Integer::intValue).toArray();
+    }
+
+    /**
+     * Emits code leaving the impedance ({@code admittance} false) or the admittance of n: series
+     * chains sum impedances, parallel groups sum admittances, and a single reciprocal converts
+     * where a chain meets a group, so a leaf costs no division.
+     */
+    private void emit(Network n, boolean admittance, List<Integer> ops) {
+        if (n instanceof Component c) {
+            ops.add((admittance ? PUSH_Y : PUSH_Z) | slots.get(c.designator()) << 2);
+            return;
+        }
+        boolean parallel = n instanceof Parallel;
+        List<Network> ps = parallel ? ((Parallel) n).parts() : ((Series) n).parts();
+        ps.forEach(p -> emit(p, parallel, ops));
+        ops.add(SUM | ps.size() << 2);
+        if (parallel != admittance) {
+            ops.add(INVERT);
+        }
+    }
+
+    private static int depth(Network n) {
+        if (n instanceof Component) {
+            return 1;
+        }
+        List<Network> ps = n instanceof Series s ? s.parts() : ((Parallel) n).parts();
+        int d = 0;
+        for (int i = 0; i < ps.size(); i++) {
+            d = Math.max(d, i + depth(ps.get(i)));
+        }
+        return d;
+    }
+
+    /**
+     * Sets the component values (Ω, F, H in slot order, each finite and &gt; 0) that
+     * {@link #power} uses. Allocates nothing.
+     */
+    void load(double[] values, Workspace w) {
+        for (int i = 0; i < kindCode.length; i++) {
+            w.values[i] = values[i];
+            w.inverse[i] = 1 / values[i];
+        }
+    }
+
+    /**
+     * |H(jω)|² of the cascade at ω = omegaRadPerS (&gt; 0) for the values last
+     * {@link #load loaded}. Allocates nothing.
+     */
+    double power(double omegaRadPerS, Workspace w) {
+        double acc = 1;
+        double[] re = w.re;
+        double[] im = w.im;
+        for (int s = 0; s < stageKind.length; s++) {
+            run(programA[s], omegaRadPerS, w);
+            double ar = re[0];
+            double ai = im[0];
+            run(programB[s], omegaRadPerS, w);
+            double br = re[0];
+            double bi = im[0];
+            double p;
+            if (stageKind[s] == KIND_DIVIDER) {
+                if (programLoad[s] != null) {
+                    run(programLoad[s], omegaRadPerS, w);
+                    // Za' = Za·Zl/(Za + Zl)
+                    double nr = ar * re[0] - ai * im[0];
+                    double ni = ar * im[0] + ai * re[0];
+                    double dr = ar + re[0];
+                    double di = ai + im[0];
+                    double m = dr * dr + di * di;
+                    ar = (nr * dr + ni * di) / m;
+                    ai = (ni * dr - nr * di) / m;
+                }
+                double dr = ar + br;
+                double di = ai + bi;
+                p = (ar * ar + ai * ai) / (dr * dr + di * di);
+            } else {
+                double m = br * br + bi * bi;
+                double gr = (ar * br + ai * bi) / m;
+                double gi = (ai * br - ar * bi) / m;
+                double tr = stageKind[s] == KIND_INVERTING ? -gr : 1 + gr;
+                double ti = stageKind[s] == KIND_INVERTING ? -gi : gi;
+                double num = tr * tr + ti * ti;
+                if (Double.isInfinite(openLoopGain[s])) {
+                    p = num;
+                } else {
+                    double invAr = 1 / openLoopGain[s];
+                    double invAi = omegaRadPerS * tauSeconds[s] / openLoopGain[s];
+                    double opr = 1 + gr;
+                    double dr = 1 + opr * invAr - gi * invAi;
+                    double di = opr * invAi + gi * invAr;
+                    p = num / (dr * dr + di * di);
+                }
+            }
+            acc *= p;
+        }
+        return acc;
+    }
+
+    /** Runs a network program at ω; the impedance ends in re[0], im[0]. */
+    private void run(int[] program, double w, Workspace ws) {
+        double[] re = ws.re;
+        double[] im = ws.im;
+        double[] v = ws.values;
+        double[] inv = ws.inverse;
+        double invW = 1 / w;
+        int top = 0;
+        for (int op : program) {
+            int arg = op >>> 2;
+            switch (op & 3) {
+                case PUSH_Z -> {
+                    int k = kindCode[arg];
+                    re[top] = k == 0 ? v[arg] : 0;
+                    im[top] = k == 0 ? 0 : k == 1 ? -inv[arg] * invW : w * v[arg];
+                    top++;
+                }
+                case PUSH_Y -> {
+                    int k = kindCode[arg];
+                    re[top] = k == 0 ? inv[arg] : 0;
+                    im[top] = k == 0 ? 0 : k == 1 ? w * v[arg] : -inv[arg] * invW;
+                    top++;
+                }
+                case SUM -> {
+                    double sr = 0;
+                    double si = 0;
+                    for (int k = top - arg; k < top; k++) {
+                        sr += re[k];
+                        si += im[k];
+                    }
+                    top -= arg;
+                    re[top] = sr;
+                    im[top] = si;
+                    top++;
+                }
+                default -> {
+                    double a = re[top - 1];
+                    double b = im[top - 1];
+                    double m = 1 / (a * a + b * b);
+                    re[top - 1] = a * m;
+                    im[top - 1] = -b * m;
+                }
+            }
+        }
+    }
+}

@@ -1,0 +1,129 @@
+package org.roseate.audio;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayOutputStream;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+import org.roseate.io.SampleEncoding;
+import org.roseate.io.WavFormat;
+import org.roseate.io.WavReader;
+
+class CaptureEngineTest {
+    /** An input giving a 16-bit ramp of codes 0, 1, 2, … (one per sample), then nothing after {@code stallAfterFrames}. */
+    static final class RampInput implements InputLine {
+        final int channels;
+        final long stallAfterFrames;
+        final CountDownLatch closed = new CountDownLatch(1);
+        volatile long frames;
+        int code;
+
+        RampInput(int channels, long stallAfterFrames) {
+            this.channels = channels;
+            this.stallAfterFrames = stallAfterFrames;
+        }
+
+        @Override public String deviceName() { return "fake-in"; }
+        @Override public int sampleRateHz() { return 48000; }
+        @Override public int channels() { return channels; }
+        @Override public int bitsPerSample() { return 16; }
+        @Override public int bufferFrames() { return 1024; }
+        @Override public void start() { }
+        @Override public long framePosition() { return frames; }
+        @Override public void close() { closed.countDown(); }
+
+        @Override
+        public int read(byte[] b, int off, int len) {
+            int n = len / (2 * channels);
+            if (closed.getCount() == 0) {
+                return 0;
+            }
+            if (frames + n > stallAfterFrames) {
+                try {
+                    closed.await();
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                }
+                return 0;
+            }
+            for (int i = 0; i < n * channels; i++) {
+                short q = (short) code++;
+                b[off + 2 * i] = (byte) q;
+                b[off + 2 * i + 1] = (byte) (q >> 8);
+            }
+            frames += n;
+            return n * 2 * channels;
+        }
+    }
+
+    @Test
+    void deliversEverySampleInOrderThroughTheRingThenCatchesTheStall() throws Exception {
+        RampInput in = new RampInput(2, 20_000);
+        // The fake gives its 20 000 frames at once; a ring larger than that never has to drop.
+        CaptureEngine e = new CaptureEngine(in, 32768, 0.3);
+        e.start();
+        double[] got = new double[40_000 * 2];
+        int n = 0;
+        double[] buf = new double[777 * 2]; // an odd size, unrelated to the block
+        long t0 = System.nanoTime();
+        while (System.nanoTime() - t0 < 3_000_000_000L && e.failure() == null || n < e.framesCaptured()) {
+            int k = e.read(buf, 777, 10, TimeUnit.MILLISECONDS);
+            System.arraycopy(buf, 0, got, n * 2, k * 2);
+            n += k;
+        }
+        AudioDeviceException f = e.failure();
+        assertNotNull(f, "the stalled input must be reported");
+        assertEquals(AudioDeviceException.Kind.STALLED, f.kind());
+        assertTrue(f.getMessage().contains("'fake-in'"), f.getMessage());
+        assertEquals(0, e.droppedFrames(), "a ring that holds everything drops nothing");
+        assertEquals(in.frames, n, "every frame the device gave was delivered");
+        for (int i = 0; i < n * 2; i++) {
+            // code / 32768 (the package's sample convention), codes counting up and wrapping at 16 bits
+            assertEquals((short) i / 32768.0, got[i], 0.0, "sample " + i);
+        }
+        e.stop();
+    }
+
+    @Test
+    void aRingTooSmallDropsWholeBlocksAndCountsThem() throws Exception {
+        RampInput in = new RampInput(1, 20_000);
+        CaptureEngine e = new CaptureEngine(in, 1024, 0.3);
+        e.start();
+        PlaybackEngineTest.waitFor(() -> e.failure() == null ? 0 : 1, 1, 5000);
+        assertEquals(in.frames, e.framesCaptured() + e.droppedFrames());
+        assertTrue(e.droppedFrames() > 0);
+        double[] buf = new double[1024];
+        int k = e.read(buf, 1024);
+        assertEquals(1024, k, "the ring is full of the oldest frames, not overwritten");
+        for (int i = 0; i < k; i++) {
+            assertEquals(i / 32768.0, buf[i], 0.0);
+        }
+        e.stop();
+    }
+
+    @Test
+    void savedCaptureIsTheSamplesUnchanged(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir) throws Exception {
+        RampInput in = new RampInput(1, Long.MAX_VALUE);
+        CaptureEngine e = new CaptureEngine(in, 8192, 2.0);
+        ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+        WavCaptureSink sink = new WavCaptureSink(bytes, new WavFormat(48000, 1, SampleEncoding.PCM_16), 5000);
+        e.start();
+        CaptureEngine.Delivery d = e.deliverTo(sink);
+        PlaybackEngineTest.waitFor(sink::framesReceived, 5000, 5000);
+        e.stop();
+        d.finish();
+        assertEquals(5000, sink.finish());
+        java.nio.file.Path file = dir.resolve("cap.wav");
+        java.nio.file.Files.write(file, bytes.toByteArray());
+        try (WavReader r = WavReader.open(file)) {
+            double[] x = new double[5000];
+            assertEquals(5000, r.readFrames(x, 5000));
+            for (int i = 0; i < 5000; i++) {
+                assertEquals(i / 32768.0, x[i], 0.0, "sample " + i);
+            }
+        }
+    }
+}
