@@ -34,8 +34,12 @@ import picocli.CommandLine.Spec;
 final class CompareCommand implements Callable<Integer> {
     enum Format { table, json, csv }
 
-    @Parameters(arity = "1..*", paramLabel = "DESIGN.json", description = "design files")
+    @Parameters(arity = "1..*", paramLabel = "DESIGN.json|CAPTURE.wav",
+            description = "design files and captures (WAV, first channel or --channel), in any order")
     List<Path> files;
+
+    @picocli.CommandLine.Option(names = "--channel", defaultValue = "1", description = "channel of the captures, 1-based (default: ${DEFAULT-VALUE})")
+    int channel;
 
     @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
     Format format;
@@ -67,6 +71,16 @@ final class CompareCommand implements Callable<Integer> {
         checkPlotName(plot);
         List<ComparedColumn> columns = new ArrayList<>();
         for (Path f : files) {
+            if (f.getFileName().toString().toLowerCase(java.util.Locale.ROOT).endsWith(".wav")) {
+                try {
+                    columns.add(org.roseate.tools.CaptureColumn.of(f, channel - 1, r, target, fraction));
+                } catch (org.roseate.io.WavFormatException | IllegalArgumentException e) {
+                    throw new UserInputException(e.getMessage());
+                } catch (java.io.IOException e) {
+                    throw new UserInputException(f.getFileName() + ": cannot read (" + e.getMessage() + ")");
+                }
+                continue;
+            }
             CircuitModel m = Inputs.model(f);
             DesignAnalysis a;
             try {
@@ -156,7 +170,11 @@ final class CompareCommand implements Callable<Integer> {
             ObjectNode o = arr.addObject();
             o.put("name", c.name());
             o.put("slopeDbPerOctave", c.slopeDbPerOctave());
-            o.put("maxDeviationDb", c.maxDeviationDb());
+            if (Double.isNaN(c.maxDeviationDb())) {
+                o.putNull("maxDeviationDb");
+            } else {
+                o.put("maxDeviationDb", c.maxDeviationDb());
+            }
             o.put("maxBandDeviationDb", c.maxBandDeviationDb());
             o.put("rippleDb", c.rippleDb());
             ArrayNode bs = o.putArray("bands");

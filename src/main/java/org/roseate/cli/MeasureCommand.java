@@ -54,8 +54,36 @@ final class MeasureCommand implements Callable<Integer> {
 
     enum Format { table, json, csv }
 
-    @Parameters(index = "0", paramLabel = "FILE.wav", description = "the capture")
+    @Parameters(index = "0", arity = "0..1", paramLabel = "FILE.wav", description = "the capture (or --live)")
     Path file;
+
+    @Option(names = "--live", description = "record from line-in first (then analyse the recording)")
+    boolean live;
+
+    @Option(names = "--device", paramLabel = "NAME|INDEX", description = "with --live: input device (default: the system's)")
+    String device;
+
+    @Option(names = "--output-device", paramLabel = "NAME|INDEX", description = "with --live --transfer: output device for the test noise")
+    String outputDevice;
+
+    @Option(names = "--rate", defaultValue = "48000", description = "with --live: sample rate in Hz (default: ${DEFAULT-VALUE})")
+    int rateHz;
+
+    @Option(names = "--seconds", defaultValue = "10", description = "with --live: recording length (default: ${DEFAULT-VALUE})")
+    double seconds;
+
+    @Option(names = "--level", defaultValue = "-20", paramLabel = "DBFS",
+            description = "with --live --transfer: RMS level of the white test noise (default: ${DEFAULT-VALUE}; above -10 needs --allow-loud)")
+    double levelDbfs;
+
+    @Option(names = "--allow-loud", description = "allow a test-noise level above -10 dBFS")
+    boolean allowLoud;
+
+    @Option(names = "--save-capture", paramLabel = "OUT.wav", description = "with --live: keep the raw recording")
+    Path saveCapture;
+
+    @Option(names = "--force", description = "replace an existing --save-capture file")
+    boolean force;
 
     @Option(names = "--channel", paramLabel = "N", description = "channel to measure, from 1 (default 1); with --transfer the response channel")
     Integer channel;
@@ -106,6 +134,30 @@ final class MeasureCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        if (live) {
+            if (file != null) {
+                throw new UserInputException("measure: give a WAV file or --live, not both");
+            }
+            file = LiveCapture.record(this);
+        } else if (file == null) {
+            throw new UserInputException("measure: name a WAV file, or record one with --live");
+        } else if (saveCapture != null) {
+            throw new UserInputException("--save-capture applies to --live only");
+        }
+        try {
+            return analyse();
+        } finally {
+            if (live && saveCapture == null) {
+                try {
+                    Files.deleteIfExists(file);
+                } catch (IOException e) {
+                    spec.commandLine().getErr().println("roseate: note: could not delete the temporary capture " + file);
+                }
+            }
+        }
+    }
+
+    private Integer analyse() {
         FrequencyRange r = Inputs.range(range);
         TargetSlope target = Inputs.slope(slope);
         BandFraction fraction = BandFraction.parse(bands)

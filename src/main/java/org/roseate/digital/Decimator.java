@@ -4,7 +4,7 @@ import java.util.List;
 import org.roseate.model.Complex;
 
 /**
- * Decimation by 1, 2 or 4 as a cascade of {@link HalfbandDecimator}s. For factor 4 the first stage
+ * Decimation by 1, 2, 4, 8 or 16 as a cascade of {@link HalfbandDecimator}s. For factor 4 the first stage
  * (4fs → 2fs) only has to keep what would fold onto the audio band, so its stopband starts at
  * 2fs − passbandEdgeHz and it is much shorter; the second stage (2fs → fs) carries the sharp transition
  * from passbandEdgeHz to fs − passbandEdgeHz. Each stage: stopband rejection ≥ {@value #REJECTION_DB} dB,
@@ -46,13 +46,13 @@ public final class Decimator {
     /**
      * A decimator from factor·outputRateHz down to outputRateHz.
      *
-     * @param factor         1, 2, 4 or 8 (a cascade of log2(factor) half-band stages)
+     * @param factor         1, 2, 4, 8 or 16 (a cascade of log2(factor) half-band stages)
      * @param outputRateHz   output rate in Hz, finite and &gt; 0
      * @param passbandEdgeHz edge of the protected band in Hz, 0 &lt; edge &lt; outputRateHz/2
      */
     public static Decimator design(int factor, double outputRateHz, double passbandEdgeHz) {
-        if (factor != 1 && factor != 2 && factor != 4 && factor != 8) {
-            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2, 4 or 8");
+        if (factor != 1 && factor != 2 && factor != 4 && factor != 8 && factor != 16) {
+            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2, 4, 8 or 16");
         }
         if (!(outputRateHz > 0) || !Double.isFinite(outputRateHz)) {
             throw new IllegalArgumentException("outputRateHz=" + outputRateHz + " must be finite and > 0");

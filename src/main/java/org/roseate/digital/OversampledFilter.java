@@ -4,7 +4,7 @@ import org.roseate.model.Complex;
 import org.roseate.model.Zpk;
 
 /**
- * The complete digital path for one output rate: the analog model discretised at M·fs (M = 1, 2 or 4,
+ * The complete digital path for one output rate: the analog model discretised at M·fs (M = 1, 2, 4, 8 or 16,
  * prewarped, headroom-scaled sections), then decimated to fs. Immutable; {@link #newRuntime()} gives
  * the running state.
  *
@@ -28,15 +28,15 @@ public final class OversampledFilter {
      *
      * @param analog       the analog model (see {@link Bilinear#discretize(Zpk, double, PrewarpRule, double)})
      * @param outputRateHz output rate fs in Hz, finite and &gt; 0
-     * @param factor       oversampling factor M: 1, 2, 4 or 8
+     * @param factor       oversampling factor M: 1, 2, 4, 8 or 16
      * @param rule         prewarping rule used at M·fs
      * @param gainMatchHz  gain-match frequency in Hz, 0 ≤ gainMatchHz &lt; fs/2
      * @throws UnrenderableModelException if the model cannot run at M·fs
      */
     public static OversampledFilter design(Zpk analog, double outputRateHz, int factor, PrewarpRule rule,
             double gainMatchHz) {
-        if (factor != 1 && factor != 2 && factor != 4 && factor != 8) {
-            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2, 4 or 8");
+        if (factor != 1 && factor != 2 && factor != 4 && factor != 8 && factor != 16) {
+            throw new IllegalArgumentException("factor=" + factor + " must be 1, 2, 4, 8 or 16");
         }
         if (!(outputRateHz > 0) || !Double.isFinite(outputRateHz)) {
             throw new IllegalArgumentException("outputRateHz=" + outputRateHz + " must be finite and > 0");

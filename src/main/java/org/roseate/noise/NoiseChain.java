@@ -14,7 +14,7 @@ import org.roseate.model.Zpk;
 /**
  * The streaming chain from white noise to output samples: a seeded white source at M·fs, the
  * design's bilinear sections at M·fs, the half-band decimator to fs, a gain that sets the RMS level,
- * and an optional soft limiter. M (1, 2 or 4) is chosen automatically as the smallest factor that
+ * and an optional soft limiter. M (1, 2, 4, 8 or 16) is chosen automatically as the smallest factor that
  * keeps every third-octave band of the output band within ±{@link #FIDELITY_TOLERANCE_DB} of the
  * analog model ({@link Oversampling#select}).
  *

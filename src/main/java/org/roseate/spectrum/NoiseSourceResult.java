@@ -18,8 +18,10 @@ import org.roseate.model.CircuitModel;
  * @param normalizedDb       each level minus the level of the reference band
  * @param referenceBand      the band the levels are normalised to: the 1 kHz band, or the band
  *                           nearest 1 kHz (in log frequency) when the range excludes it
- * @param slopeDbPerOctave   least-squares slope of the band levels against log2 of the exact
- *                           midband frequency, dB/octave
+ * @param slopeDbPerOctave   least-squares slope of the spectral density the bands imply (band level
+ *                           minus 10·log10 of the band width) against log2 of the exact midband
+ *                           frequency, dB/octave: the same quantity analyze reports for a design,
+ *                           so pink noise reads −3.01 and white 0, although pink band levels are flat
  * @param target             the target slope
  * @param deviation          levels against the target's band levels, centred (the same
  *                           comparison analyze makes for a design)
@@ -88,7 +90,11 @@ public record NoiseSourceResult(SpectralDensity density, List<BandLevel> levels,
             for (int i = 0; i < db.length; i++) {
                 s.normalizedDb[i] = db[i] - db[ref];
             }
-            s.slope = db.length > 1 ? SlopeFit.leastSquaresSlope(table.midHz(), db) : Double.NaN;
+            double[] densityDb = new double[db.length];
+            for (int i = 0; i < db.length; i++) {
+                densityDb[i] = db[i] - 10 * Math.log10(table.band(i).widthHz());
+            }
+            s.slope = db.length > 1 ? SlopeFit.leastSquaresSlope(table.midHz(), densityDb) : Double.NaN;
             s.deviation = BandComparison.of(table, db, target);
             if (design != null) {
                 BandComparison model = DesignAnalysis.bandLevels(design, table, target);

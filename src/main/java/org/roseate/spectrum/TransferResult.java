@@ -24,7 +24,8 @@ import org.roseate.model.CircuitModel;
  * @param levels             band levels of |H|²
  * @param normalizedDb       levels minus the reference band's
  * @param referenceBand      the 1 kHz band or the one nearest it
- * @param slopeDbPerOctave   least-squares slope of the band levels, dB/octave
+ * @param slopeDbPerOctave   least-squares slope of |H|² per hertz implied by the band levels (level
+ *                           minus 10·log10 of the band width), dB/octave, as analyze reports it
  * @param target             the target slope
  * @param deviation          levels against the target, centred
  * @param designDifferenceDb level minus the design's band level, mean removed; null without a design

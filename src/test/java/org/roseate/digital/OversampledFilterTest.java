@@ -84,6 +84,6 @@ class OversampledFilterTest {
                 () -> r.process(new double[5], new double[3], 3));
         assertEquals("nOut=3 needs 6 input and 3 output samples; have 5, 3", e.getMessage());
         assertThrows(IllegalArgumentException.class,
-                () -> OversampledFilter.design(OversamplingTest.pinkNetwork(), 44100, 16, PrewarpRule.PER_ROOT, 1000));
+                () -> OversampledFilter.design(OversamplingTest.pinkNetwork(), 44100, 32, PrewarpRule.PER_ROOT, 1000));
     }
 }

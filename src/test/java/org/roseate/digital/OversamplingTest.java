@@ -81,7 +81,7 @@ class OversamplingTest {
         UnrenderableModelException e = assertThrows(UnrenderableModelException.class,
                 () -> Oversampling.choose(examplePinkNetwork(), 44100, b[0], b[1], 0.001, 1000));
         assertEquals(Reason.TOLERANCE_NOT_MET, e.reason());
-        assertTrue(e.getMessage().startsWith("even at 8x oversampling the band"), e.getMessage());
+        assertTrue(e.getMessage().startsWith("even at 16x oversampling the band"), e.getMessage());
     }
 
     @Test
