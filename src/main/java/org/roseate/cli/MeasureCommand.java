@@ -82,8 +82,11 @@ final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--save-capture", paramLabel = "OUT.wav", description = "with --live: keep the raw recording")
     Path saveCapture;
 
-    @Option(names = "--force", description = "replace an existing --save-capture file")
+    @Option(names = "--force", description = "replace an existing --save-capture or --plot file")
     boolean force;
+
+    @Option(names = "--plot", paramLabel = "FILE.png|FILE.svg", description = "noise-source mode: draw the bands with their uncertainty")
+    Path plot;
 
     @Option(names = "--channel", paramLabel = "N", description = "channel to measure, from 1 (default 1); with --transfer the response channel")
     Integer channel;
@@ -158,6 +161,10 @@ final class MeasureCommand implements Callable<Integer> {
     }
 
     private Integer analyse() {
+        CompareCommand.checkPlotName(plot);
+        if (plot != null && transfer) {
+            throw new UserInputException("--plot draws noise-source measurements; leave out --transfer");
+        }
         FrequencyRange r = Inputs.range(range);
         TargetSlope target = Inputs.slope(slope);
         BandFraction fraction = BandFraction.parse(bands)
@@ -276,6 +283,9 @@ final class MeasureCommand implements Callable<Integer> {
             res = NoiseSourceResult.of(d, table, target, model);
         } catch (IllegalArgumentException e) {
             throw new UserInputException(name() + ": " + e.getMessage());
+        }
+        if (plot != null) {
+            CompareCommand.writePlot(org.roseate.plot.Charts.measurement(file.getFileName().toString(), res), plot, force);
         }
         return switch (format) {
             case json -> json(noiseJson(res, ch + 1));

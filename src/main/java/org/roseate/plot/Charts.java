@@ -100,4 +100,54 @@ public final class Charts {
         }
         return BandBars.of(name, lo, hi, v);
     }
+
+    /**
+     * The chart of {@code measure} in noise-source mode: band levels re the reference band with
+     * ±1σ uncertainty whiskers, the target line and, when given, the design's predicted shape; below,
+     * each band's centred deviation from the target.
+     */
+    public static FrequencyChart measurement(String name, org.roseate.spectrum.NoiseSourceResult r) {
+        List<org.roseate.spectrum.BandLevel> lv = r.levels();
+        int n = lv.size();
+        double[] lo = new double[n];
+        double[] hi = new double[n];
+        double[] mid = new double[n];
+        double[] level = r.normalizedDb();
+        double[] wLo = new double[n];
+        double[] wHi = new double[n];
+        double[] dev = new double[n];
+        double[] target = new double[n];
+        int ref = -1;
+        for (int i = 0; i < n; i++) {
+            var b = lv.get(i).band();
+            lo[i] = b.lowHz();
+            hi[i] = b.highHz();
+            mid[i] = b.midHz();
+            double u = lv.get(i).uncertaintyDb();
+            wLo[i] = level[i] - (Double.isFinite(u) ? u : 0);
+            wHi[i] = level[i] + (Double.isFinite(u) ? u : 0);
+            dev[i] = r.deviation().readings().get(i).deviationDb();
+            if (b.equals(r.referenceBand())) {
+                ref = i;
+            }
+        }
+        double refTarget = ref < 0 ? 0 : 10 * Math.log10(r.target().bandPower(lo[ref], hi[ref]));
+        for (int i = 0; i < n; i++) {
+            target[i] = 10 * Math.log10(r.target().bandPower(lo[i], hi[i])) - refTarget;
+        }
+        List<Curve> curves = new ArrayList<>();
+        curves.add(new Curve("target " + r.target().describe() + " in bands", mid, target, true));
+        if (r.designDifferenceDb() != null) {
+            double[] design = new double[n];
+            for (int i = 0; i < n; i++) {
+                design[i] = level[i] - r.designDifferenceDb()[i];
+            }
+            curves.add(new Curve("design (shape)", mid, design, false));
+        }
+        Panel top = new Panel("Band level re " + r.referenceBand().label() + " Hz band (dB)", curves,
+                List.of(new FrequencyChart.BandBars(name + " (±1σ)", lo, hi, level, wLo, wHi)), List.of());
+        Panel bottom = new Panel("Band deviation from target (dB)", List.of(),
+                List.of(FrequencyChart.BandBars.of("deviation", lo, hi, dev)), List.of());
+        return new FrequencyChart(name + ": measured bands", List.of(top, bottom));
+    }
 }

@@ -39,4 +39,18 @@ class CompareCapturesTest {
         }
         assertEquals(2, AnalyzeCommandTest.run("compare", "presets/bench-pink.json", dir.resolve("none.wav").toString()).status());
     }
+
+    /** measure --plot writes a chart that decodes as PNG (javax.imageio, outside the project). */
+    @Test
+    void measurePlotIsWrittenAndDecodes() throws Exception {
+        Path cap = dir.resolve("pink.wav");
+        assertEquals(0, AnalyzeCommandTest.run("render", "presets/bench-pink.json", "-o", cap.toString(), "--seconds", "12").status());
+        Path png = dir.resolve("bands.png");
+        var m = AnalyzeCommandTest.run("measure", cap.toString(), "--against", "presets/bench-pink.json", "--plot", png.toString());
+        assertEquals(0, m.status(), m.err());
+        java.awt.image.BufferedImage img = javax.imageio.ImageIO.read(png.toFile());
+        assertTrue(img != null && img.getWidth() > 100 && img.getHeight() > 100);
+        java.nio.file.Files.copy(png, Path.of("target", "measure-plot-sample.png"), java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+        assertEquals(2, AnalyzeCommandTest.run("measure", cap.toString(), "--plot", dir.resolve("x.gif").toString()).status());
+    }
 }
