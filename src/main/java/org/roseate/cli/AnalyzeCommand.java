@@ -34,21 +34,17 @@ final class AnalyzeCommand implements Callable<Integer> {
 
     enum Format { table, json, csv }
 
+    @picocli.CommandLine.Mixin
+    BandOptions bandOptions = new BandOptions();
+
     @Parameters(index = "0", paramLabel = "DESIGN.json", description = "design file")
     Path file;
 
     @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
     Format format;
 
-    @Option(names = "--range", defaultValue = "20-20000", paramLabel = "LO-HI", description = "frequency range in Hz (default: ${DEFAULT-VALUE})")
-    String range;
 
-    @Option(names = "--bands", defaultValue = "third", paramLabel = "octave|third", description = "band width (default: ${DEFAULT-VALUE})")
-    String bands;
 
-    @Option(names = "--slope", defaultValue = "pink", paramLabel = "DB_PER_OCTAVE",
-            description = "target slope in dB/octave, or pink, white, brown, blue (default: ${DEFAULT-VALUE} = −3.0103)")
-    String slope;
 
     @Option(names = "--freqs", paramLabel = "F1,F2,…", description = "response points in Hz (default: a log grid over the range)")
     String freqs;
@@ -71,10 +67,9 @@ final class AnalyzeCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        FrequencyRange r = Inputs.range(range);
-        TargetSlope target = Inputs.slope(slope);
-        BandFraction fraction = BandFraction.parse(bands)
-                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        FrequencyRange r = bandOptions.range();
+        TargetSlope target = bandOptions.target();
+        BandFraction fraction = bandOptions.fraction();
         if (pointsPerDecade < 1 || pointsPerDecade > 10000) {
             throw new UserInputException("--points-per-decade: expected 1 to 10000, found " + pointsPerDecade);
         }

@@ -34,6 +34,9 @@ import picocli.CommandLine.Spec;
 final class CompareCommand implements Callable<Integer> {
     enum Format { table, json, csv }
 
+    @picocli.CommandLine.Mixin
+    BandOptions bandOptions = new BandOptions();
+
     @Parameters(arity = "1..*", paramLabel = "DESIGN.json|CAPTURE.wav",
             description = "design files and captures (WAV, first channel or --channel), in any order")
     List<Path> files;
@@ -44,14 +47,8 @@ final class CompareCommand implements Callable<Integer> {
     @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
     Format format;
 
-    @Option(names = "--range", defaultValue = "20-20000", paramLabel = "LO-HI", description = "frequency range in Hz (default: ${DEFAULT-VALUE})")
-    String range;
 
-    @Option(names = "--bands", defaultValue = "third", paramLabel = "octave|third", description = "band width (default: ${DEFAULT-VALUE})")
-    String bands;
 
-    @Option(names = "--slope", defaultValue = "pink", description = "target slope (default: ${DEFAULT-VALUE})")
-    String slope;
 
     @Option(names = "--plot", paramLabel = "FILE.png|FILE.svg", description = "also draw the comparison")
     Path plot;
@@ -64,10 +61,9 @@ final class CompareCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        FrequencyRange r = Inputs.range(range);
-        TargetSlope target = Inputs.slope(slope);
-        BandFraction fraction = BandFraction.parse(bands)
-                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        FrequencyRange r = bandOptions.range();
+        TargetSlope target = bandOptions.target();
+        BandFraction fraction = bandOptions.fraction();
         checkPlotName(plot);
         List<ComparedColumn> columns = new ArrayList<>();
         for (Path f : files) {

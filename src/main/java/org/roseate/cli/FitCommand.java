@@ -38,6 +38,9 @@ import picocli.CommandLine.Spec;
                 + "ladder (--divider) or every value of a design file (--from). Minimises the band peak deviation "
                 + "plus a tenth of the pointwise peak, then searches neighbouring standard values.")
 final class FitCommand implements Callable<Integer> {
+    @picocli.CommandLine.Mixin
+    BandOptions bandOptions = new BandOptions();
+
     @Option(names = "--from", paramLabel = "DESIGN.json", description = "fit every component value of this design, keeping its topology")
     Path from;
 
@@ -65,14 +68,8 @@ final class FitCommand implements Callable<Integer> {
     @Option(names = "--limits", defaultValue = "R=1k-2M2,C=100p-1u", description = "allowed values (default: ${DEFAULT-VALUE})")
     String limits;
 
-    @Option(names = "--range", defaultValue = "20-20000", paramLabel = "LO-HI", description = "frequency range in Hz (default: ${DEFAULT-VALUE})")
-    String range;
 
-    @Option(names = "--bands", defaultValue = "third", paramLabel = "octave|third", description = "band width (default: ${DEFAULT-VALUE})")
-    String bands;
 
-    @Option(names = "--slope", defaultValue = "pink", description = "target slope in dB/octave or pink, white, brown, blue (default: ${DEFAULT-VALUE})")
-    String slope;
 
     @Option(names = "--starts", description = "continuous starts (default: 4, at least the thread count)")
     Integer starts;
@@ -97,10 +94,9 @@ final class FitCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        FrequencyRange r = Inputs.range(range);
-        TargetSlope target = Inputs.slope(slope);
-        BandFraction fraction = BandFraction.parse(bands)
-                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        FrequencyRange r = bandOptions.range();
+        TargetSlope target = bandOptions.target();
+        BandFraction fraction = bandOptions.fraction();
         PartLimits lim;
         try {
             lim = PartLimits.parse(limits);

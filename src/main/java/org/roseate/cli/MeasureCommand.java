@@ -54,6 +54,9 @@ final class MeasureCommand implements Callable<Integer> {
 
     enum Format { table, json, csv }
 
+    @picocli.CommandLine.Mixin
+    BandOptions bandOptions = new BandOptions();
+
     @Parameters(index = "0", arity = "0..1", paramLabel = "FILE.wav", description = "the capture (or --live)")
     Path file;
 
@@ -97,15 +100,8 @@ final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--reference-channel", paramLabel = "N", description = "with --transfer: the reference channel, from 1 (default 1)")
     Integer referenceChannel;
 
-    @Option(names = "--bands", defaultValue = "third", paramLabel = "octave|third", description = "band width (default: ${DEFAULT-VALUE})")
-    String bands;
 
-    @Option(names = "--range", defaultValue = "20-20000", paramLabel = "LO-HI", description = "frequency range in Hz (default: ${DEFAULT-VALUE})")
-    String range;
 
-    @Option(names = "--slope", defaultValue = "pink", paramLabel = "DB_PER_OCTAVE",
-            description = "target slope in dB/octave, or pink, white, brown, blue (default: ${DEFAULT-VALUE})")
-    String slope;
 
     @Option(names = "--against", paramLabel = "DESIGN.json", description = "compare with a design's predicted levels")
     Path against;
@@ -165,10 +161,9 @@ final class MeasureCommand implements Callable<Integer> {
         if (plot != null && transfer) {
             throw new UserInputException("--plot draws noise-source measurements; leave out --transfer");
         }
-        FrequencyRange r = Inputs.range(range);
-        TargetSlope target = Inputs.slope(slope);
-        BandFraction fraction = BandFraction.parse(bands)
-                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        FrequencyRange r = bandOptions.range();
+        TargetSlope target = bandOptions.target();
+        BandFraction fraction = bandOptions.fraction();
         BandTable table;
         try {
             table = BandTable.of(fraction, r.loHz(), r.hiHz());

@@ -29,6 +29,9 @@ import picocli.CommandLine.Spec;
 final class ToleranceCommand implements Callable<Integer> {
     enum Format { table, json }
 
+    @picocli.CommandLine.Mixin
+    BandOptions bandOptions = new BandOptions();
+
     @Parameters(index = "0", paramLabel = "DESIGN.json", description = "design file (tolerances from its \"tolerance\" map)")
     Path file;
 
@@ -44,14 +47,8 @@ final class ToleranceCommand implements Callable<Integer> {
     @Option(names = "--limit", defaultValue = "1dB", description = "yield limit on the peak band deviation (default: ${DEFAULT-VALUE})")
     String limit;
 
-    @Option(names = "--range", defaultValue = "20-20000", paramLabel = "LO-HI", description = "frequency range in Hz (default: ${DEFAULT-VALUE})")
-    String range;
 
-    @Option(names = "--bands", defaultValue = "third", paramLabel = "octave|third", description = "band width (default: ${DEFAULT-VALUE})")
-    String bands;
 
-    @Option(names = "--slope", defaultValue = "pink", description = "target slope (default: ${DEFAULT-VALUE})")
-    String slope;
 
     @Option(names = "--threads", description = "worker threads (default: all cores; results do not depend on it)")
     Integer threads;
@@ -70,10 +67,9 @@ final class ToleranceCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        FrequencyRange r = Inputs.range(range);
-        TargetSlope target = Inputs.slope(slope);
-        BandFraction fraction = BandFraction.parse(bands)
-                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        FrequencyRange r = bandOptions.range();
+        TargetSlope target = bandOptions.target();
+        BandFraction fraction = bandOptions.fraction();
         Distribution dist = Distribution.parse(distribution)
                 .orElseThrow(() -> new UserInputException("--distribution: expected uniform or gaussian, found '" + distribution + "'"));
         if (trials < 1 || trials > 10_000_000) {
