@@ -122,8 +122,9 @@ class AnalyzeCommandTest {
         double lo = band.get("lowHz").asDouble();
         double hi = band.get("highHz").asDouble();
         double expected = BandPower.levelDb(path::magnitudeSquared, lo, hi) - BandPower.levelDb(m::magnitudeSquared, lo, hi);
-        // Two quadratures of the same smooth integrands: agreement to 1e-4 dB.
-        assertEquals(expected, band.get("differenceDb").asDouble(), 1e-4);
+        // Two different quadratures of the same integrands; the decimator's ±0.005 dB pass-band ripple
+        // (period about 1 kHz at 12.5 kHz) limits their agreement to a few 1e-4 dB.
+        assertEquals(expected, band.get("differenceDb").asDouble(), 3e-4);
         assertEquals(2, run("analyze", "presets/bench-pink.json", "--rate", "10").status());
     }
 }
