@@ -120,10 +120,12 @@ public final class Decimator {
      * outputs; allocation-free (an internal scratch buffer is reused in fixed chunks).
      */
     public static final class Runtime {
-        private static final int CHUNK = 512;
+        /** Output samples per internal chunk. */
+        private static final int CHUNK_OUT = 256;
         private final Decimator design;
         private final HalfbandDecimator.Runtime[] stages;
-        private final double[] scratch;
+        /** Ping-pong buffers between stages, each CHUNK_OUT·factor/2 long. */
+        private final double[][] scratch;
 
         private Runtime(Decimator design) {
             this.design = design;
@@ -131,7 +133,8 @@ public final class Decimator {
             for (int i = 0; i < stages.length; i++) {
                 stages[i] = design.stages.get(i).newRuntime();
             }
-            scratch = new double[CHUNK];
+            int len = Math.max(1, CHUNK_OUT * design.factor / 2);
+            scratch = new double[][] {new double[len], new double[len]};
         }
 
         /**
@@ -150,11 +153,22 @@ public final class Decimator {
                 case 0 -> System.arraycopy(in, inOffset, out, outOffset, nOut);
                 case 1 -> stages[0].process(in, inOffset, 2 * nOut, out, outOffset);
                 default -> {
+                    // Chunk by chunk through every stage, halving the count at each.
                     int done = 0;
                     while (done < nOut) {
-                        int c = Math.min(nOut - done, CHUNK / 2);
-                        stages[0].process(in, inOffset + 4 * done, 4 * c, scratch, 0);
-                        stages[1].process(scratch, 0, 2 * c, out, outOffset + done);
+                        int c = Math.min(nOut - done, CHUNK_OUT);
+                        double[] src = in;
+                        int srcOff = inOffset + f * done;
+                        int n = f * c;
+                        for (int s = 0; s < stages.length; s++) {
+                            boolean last = s == stages.length - 1;
+                            double[] dst = last ? out : scratch[s % 2];
+                            int dstOff = last ? outOffset + done : 0;
+                            stages[s].process(src, srcOff, n, dst, dstOff);
+                            src = dst;
+                            srcOff = dstOff;
+                            n /= 2;
+                        }
                         done += c;
                     }
                 }

@@ -59,7 +59,7 @@ class DecimatorTest {
     }
 
     @ParameterizedTest
-    @ValueSource(ints = {2, 4})
+    @ValueSource(ints = {2, 4, 8, 16})
     void blocksGiveTheWholeSignalBitwise(int factor) {
         Decimator d = Decimator.forAudio(factor, 48000);
         int nOut = 1501;
@@ -83,5 +83,31 @@ class DecimatorTest {
         assertTrue(e.getMessage().contains("factor=3"), e.getMessage());
         Decimator.Runtime r = Decimator.forAudio(2, 48000).newRuntime();
         assertThrows(IllegalArgumentException.class, () -> r.process(new double[3], 0, new double[2], 0, 2));
+    }
+
+    /**
+     * The cascade's streaming output equals running each half-band stage over the whole signal in
+     * turn (the definition of the cascade), for every factor; this caught a runtime that drove only
+     * the first two stages of an 8× or 16× cascade.
+     */
+    @ParameterizedTest
+    @ValueSource(ints = {2, 4, 8, 16})
+    void cascadeEqualsStageByStage(int factor) {
+        Decimator d = Decimator.forAudio(factor, 44100);
+        java.util.Random r = new java.util.Random(17);
+        int nOut = 3000;
+        double[] x = new double[nOut * factor];
+        for (int i = 0; i < x.length; i++) {
+            x[i] = r.nextGaussian();
+        }
+        double[] expected = x;
+        for (HalfbandDecimator stage : d.stages()) {
+            double[] y = new double[expected.length / 2];
+            stage.newRuntime().process(expected, 0, expected.length, y, 0);
+            expected = y;
+        }
+        double[] got = new double[nOut];
+        d.newRuntime().process(x, 0, got, 0, nOut);
+        org.junit.jupiter.api.Assertions.assertArrayEquals(expected, got, 0.0);
     }
 }
