@@ -1,17 +1,16 @@
 package org.roseate.app;
 
+import java.nio.file.Path;
 import javafx.application.Application;
-import javafx.geometry.Insets;
-import javafx.scene.Scene;
-import javafx.scene.control.Label;
-import javafx.scene.layout.VBox;
 import javafx.stage.Stage;
 
 /**
- * The desktop window. For now it shows the product's purpose and points to the command line;
- * the design, listen, measure and compare views arrive with the desktop issue.
+ * The desktop window's JavaFX application: design, listen, measure and compare views over the same
+ * core the command line uses. Opens on {@code presets/bench-pink.json} when the working directory
+ * has it, else on an embedded copy of that design.
  */
 public final class RoseateApp extends Application {
+    private MainWindow window;
 
     /** Starts JavaFX and opens the window; returns when the window closes. */
     public static void launchWindow(String[] args) {
@@ -26,15 +25,7 @@ public final class RoseateApp extends Application {
 
     @Override
     public void start(Stage stage) {
-        Label title = new Label("Roseate");
-        title.setStyle("-fx-font-size: 22px; -fx-font-weight: bold;");
-        Label body = new Label("Design, hear and measure pink-noise filters.\n"
-                + "The window's views are being built; every function is available now from the command line:\n"
-                + "  java -jar roseate.jar --help");
-        VBox box = new VBox(12, title, body);
-        box.setPadding(new Insets(24));
-        stage.setTitle("Roseate");
-        stage.setScene(new Scene(box, 720, 420));
-        stage.show();
+        window = new MainWindow(new FxPrompts(), Path.of("").toAbsolutePath());
+        window.show(stage);
     }
 }

@@ -1,0 +1,30 @@
+package org.roseate.app;
+
+import org.junit.jupiter.api.extension.BeforeAllCallback;
+import org.junit.jupiter.api.extension.ExtensionContext;
+
+/**
+ * Puts TestFX on the Monocle headless platform when there is no display, before the JavaFX
+ * toolkit starts; with a DISPLAY the tests run on the real window system. Register it before
+ * TestFX's ApplicationExtension.
+ */
+public final class HeadlessFx implements BeforeAllCallback {
+    @Override
+    public void beforeAll(ExtensionContext context) {
+        activate();
+    }
+
+    /** Sets the Monocle properties once, if no display is present. */
+    static synchronized void activate() {
+        if (System.getenv("DISPLAY") != null && !Boolean.getBoolean("roseate.headless")) {
+            return;
+        }
+        System.setProperty("testfx.robot", "glass");
+        System.setProperty("testfx.headless", "true");
+        System.setProperty("glass.platform", "Monocle");
+        System.setProperty("monocle.platform", "Headless");
+        System.setProperty("prism.order", "sw");
+        System.setProperty("prism.text", "t2k");
+        System.setProperty("java.awt.headless", "true");
+    }
+}
