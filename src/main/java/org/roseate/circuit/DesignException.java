@@ -18,10 +18,42 @@ public final class DesignException extends RuntimeException {
     }
 
     public DesignException(String message, int stageNumber, String role, int column) {
-        super(message);
+        super(oneLine(message));
         this.stageNumber = stageNumber;
         this.role = role;
         this.column = column;
+    }
+
+    /**
+     * The message with line breaks and other control characters written as escapes ({@code \n},
+     * {@code \r}, {@code \t}, {@code \}{@code uXXXX}), so text quoted from a file can never break the
+     * one-line contract.
+     */
+    private static String oneLine(String message) {
+        if (message == null) {
+            return null;
+        }
+        StringBuilder b = null;
+        for (int i = 0; i < message.length(); i++) {
+            char c = message.charAt(i);
+            boolean control = Character.isISOControl(c) || c == '\u2028' || c == '\u2029';
+            if (control && b == null) {
+                b = new StringBuilder(message.length() + 8).append(message, 0, i);
+            }
+            if (b != null) {
+                if (!control) {
+                    b.append(c);
+                } else {
+                    b.append(switch (c) {
+                        case '\n' -> "\\n";
+                        case '\r' -> "\\r";
+                        case '\t' -> "\\t";
+                        default -> String.format("\\u%04x", (int) c);
+                    });
+                }
+            }
+        }
+        return b == null ? message : b.toString();
     }
 
     /** 1-based stage number, or empty when the error is not inside a stage. */

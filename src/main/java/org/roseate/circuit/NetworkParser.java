@@ -17,8 +17,15 @@ import org.roseate.value.ValueFormatException;
  * are common on schematics. Errors carry the 1-based column of the offending character.
  */
 public final class NetworkParser {
+    /**
+     * Deepest parenthesis nesting accepted. Real networks nest two or three levels; the limit keeps
+     * the recursive descent (and the model's recursion over the tree) far from the thread's stack.
+     */
+    public static final int MAX_NESTING = 100;
+
     private final String text;
     private int pos;
+    private int depth;
 
     private NetworkParser(String text) {
         this.text = text;
@@ -94,6 +101,10 @@ public final class NetworkParser {
         char c = text.charAt(pos);
         if (c == '(') {
             int open = pos;
+            if (depth == MAX_NESTING) {
+                throw error("parentheses nested deeper than " + MAX_NESTING + " levels");
+            }
+            depth++;
             pos++;
             skipSpace();
             if (pos < text.length() && text.charAt(pos) == ')') {
@@ -106,6 +117,7 @@ public final class NetworkParser {
                 throw error("unbalanced parentheses: '(' is never closed");
             }
             pos++;
+            depth--;
             return inner;
         }
         if (c == ')') {
