@@ -281,12 +281,17 @@ public final class DesignReader {
         };
     }
 
+    /** Jackson's message, first line only, without its source-location annotations. */
     private static String firstLine(String s) {
         if (s == null) {
             return "unreadable";
         }
         int nl = s.indexOf('\n');
-        return nl < 0 ? s : s.substring(0, nl);
+        String line = nl < 0 ? s : s.substring(0, nl);
+        // "(start marker at [Source: …; line: 1, column: 25])" → "(opened at line 1, column 25)"
+        line = line.replaceAll("\\(start marker at \\[Source: [^;]*; line: (\\d+), column: (\\d+)\\]\\)",
+                "(opened at line $1, column $2)");
+        return line.replaceAll("\\s*\\[Source: [^\\]]*\\]", "").strip();
     }
 
     private DesignException fail(String message) {
