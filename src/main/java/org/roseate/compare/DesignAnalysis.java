@@ -4,6 +4,7 @@ import java.util.List;
 import org.roseate.bands.Band;
 import org.roseate.bands.BandFraction;
 import org.roseate.bands.BandTable;
+import org.roseate.model.BandPower;
 import org.roseate.model.CircuitModel;
 import org.roseate.model.FrequencyResponse;
 import org.roseate.model.Root;

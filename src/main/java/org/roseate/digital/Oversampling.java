@@ -3,6 +3,7 @@ package org.roseate.digital;
 import java.util.ArrayList;
 import java.util.List;
 import org.roseate.digital.UnrenderableModelException.Reason;
+import org.roseate.model.BandPower;
 import org.roseate.model.Zpk;
 
 /**
@@ -10,7 +11,7 @@ import org.roseate.model.Zpk;
  * comparing band levels of the digital path ({@link OversampledFilter}, rule {@link PrewarpRule#PER_ROOT})
  * with the analog model.
  *
- * <p>Band level = 10·log10 ∫|H|² df ({@link BandIntegral}). Each band is integrated over
+ * <p>Band level = 10·log10 ∫|H|² df ({@link BandPower}). Each band is integrated over
  * [low, min(high, edge)] with edge = {@link Decimator#audioPassbandEdgeHz(double)} (20 kHz at 44.1 kHz
  * and above), for the analog model and the digital path alike: a stream at fs carries nothing above
  * fs/2, so the top third-octave band (nominal 20 kHz, 17.8–22.4 kHz) is compared on 17.8–20 kHz.
@@ -99,8 +100,8 @@ public final class Oversampling {
                         + edge + " Hz audio edge of output rate " + outputRateHz + " Hz");
             }
             double top = Math.min(hi, edge);
-            double digital = BandIntegral.levelDb(path::magnitudeSquared, lo, top);
-            double model = BandIntegral.levelDb(f -> {
+            double digital = BandPower.levelDb(path::magnitudeSquared, lo, top);
+            double model = BandPower.levelDb(f -> {
                 double m = analog.evaluateAtHz(f).abs();
                 return m * m;
             }, lo, top);

@@ -3,7 +3,7 @@ package org.roseate.noise;
 import java.util.Optional;
 import org.roseate.bands.BandFraction;
 import org.roseate.bands.BandTable;
-import org.roseate.compare.BandPower;
+import org.roseate.model.BandPower;
 import org.roseate.digital.Decimator;
 import org.roseate.digital.FidelityReport;
 import org.roseate.digital.OversampledFilter;

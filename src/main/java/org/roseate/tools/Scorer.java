@@ -11,7 +11,7 @@ import org.roseate.compare.TargetSlope;
 /**
  * The deviation measures of {@link org.roseate.compare.DesignAnalysis} on a fixed frequency set,
  * for a {@link PowerProgram}: band levels 10·log10 ∫|H|² df by the same composite 8-point
- * Gauss–Legendre rule on ln f as {@link org.roseate.compare.BandPower} (Abramowitz &amp; Stegun
+ * Gauss–Legendre rule on ln f as {@link org.roseate.model.BandPower} (Abramowitz &amp; Stegun
  * table 25.4, sub-intervals ≤ 0.05 in ln f; nodes precomputed here once), and the pointwise
  * deviation on the {@link SlopeFit} grid ({@value SlopeFit#POINTS_PER_DECADE} per decade). Both
  * centred by the minimax offset, peak = (max − min)/2. Immutable; thread-safe with one

@@ -16,7 +16,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
 import org.roseate.circuit.DesignReader;
-import org.roseate.compare.BandPower;
+import org.roseate.model.BandPower;
 import org.roseate.model.CircuitModel;
 
 class AnalyzeCommandTest {

@@ -13,7 +13,7 @@ import org.junit.jupiter.params.provider.ValueSource;
 import org.roseate.bands.BandFraction;
 import org.roseate.bands.BandTable;
 import org.roseate.circuit.DesignReader;
-import org.roseate.compare.BandPower;
+import org.roseate.model.BandPower;
 import org.roseate.compare.TargetSlope;
 import org.roseate.digital.FidelityReport;
 import org.roseate.digital.OversampledFilter;

@@ -1,4 +1,4 @@
-package org.roseate.compare;
+package org.roseate.model;
 
 import java.util.function.DoubleUnaryOperator;
 
@@ -23,7 +23,7 @@ public final class BandPower {
 
     /** ∫ from lowHz to highHz of power(f) df; 0 &lt; lowHz &lt; highHz. */
     public static double integrate(DoubleUnaryOperator power, double lowHz, double highHz) {
-        if (!(lowHz > 0) || !(highHz > lowHz)) {
+        if (!(lowHz > 0) || !(highHz > lowHz) || !Double.isFinite(highHz)) {
             throw new IllegalArgumentException("band " + lowHz + "-" + highHz + " Hz must satisfy 0 < low < high");
         }
         double a = Math.log(lowHz);
