@@ -277,15 +277,15 @@ public final class Devices {
         return s.replaceAll("\\s+", " ").trim();
     }
 
-    /** Adapts a SourceDataLine. */
-    private static final class JavaSoundOutput implements OutputLine {
-        private final SourceDataLine line;
+    /** What both Java Sound adapters share: the line, its name and format, start, position, close. */
+    private abstract static class JavaSoundLine<L extends javax.sound.sampled.DataLine> {
+        final L line;
         private final String name;
         private final int rateHz;
         private final int channels;
         private final int bits;
 
-        JavaSoundOutput(SourceDataLine line, String name, int rateHz, int channels, int bits) {
+        JavaSoundLine(L line, String name, int rateHz, int channels, int bits) {
             this.line = line;
             this.name = name;
             this.rateHz = rateHz;
@@ -293,111 +293,60 @@ public final class Devices {
             this.bits = bits;
         }
 
-        @Override
         public String deviceName() {
             return name;
         }
 
-        @Override
         public int sampleRateHz() {
             return rateHz;
         }
 
-        @Override
         public int channels() {
             return channels;
         }
 
-        @Override
         public int bitsPerSample() {
             return bits;
         }
 
-        @Override
         public int bufferFrames() {
             return line.getBufferSize() / line.getFormat().getFrameSize();
         }
 
-        @Override
         public void start() {
             line.start();
+        }
+
+        public long framePosition() {
+            return line.getLongFramePosition();
+        }
+
+        public void close() {
+            line.close();
+        }
+    }
+
+    /** Adapts a SourceDataLine. */
+    private static final class JavaSoundOutput extends JavaSoundLine<SourceDataLine> implements OutputLine {
+        JavaSoundOutput(SourceDataLine line, String name, int rateHz, int channels, int bits) {
+            super(line, name, rateHz, channels, bits);
         }
 
         @Override
         public int write(byte[] bytes, int offset, int length) {
             return line.write(bytes, offset, length);
         }
-
-        @Override
-        public long framePosition() {
-            return line.getLongFramePosition();
-        }
-
-        @Override
-        public void close() {
-            line.close();
-        }
     }
 
     /** Adapts a TargetDataLine. */
-    private static final class JavaSoundInput implements InputLine {
-        private final TargetDataLine line;
-        private final String name;
-        private final int rateHz;
-        private final int channels;
-        private final int bits;
-
+    private static final class JavaSoundInput extends JavaSoundLine<TargetDataLine> implements InputLine {
         JavaSoundInput(TargetDataLine line, String name, int rateHz, int channels, int bits) {
-            this.line = line;
-            this.name = name;
-            this.rateHz = rateHz;
-            this.channels = channels;
-            this.bits = bits;
-        }
-
-        @Override
-        public String deviceName() {
-            return name;
-        }
-
-        @Override
-        public int sampleRateHz() {
-            return rateHz;
-        }
-
-        @Override
-        public int channels() {
-            return channels;
-        }
-
-        @Override
-        public int bitsPerSample() {
-            return bits;
-        }
-
-        @Override
-        public int bufferFrames() {
-            return line.getBufferSize() / line.getFormat().getFrameSize();
-        }
-
-        @Override
-        public void start() {
-            line.start();
+            super(line, name, rateHz, channels, bits);
         }
 
         @Override
         public int read(byte[] bytes, int offset, int length) {
             return line.read(bytes, offset, length);
-        }
-
-        @Override
-        public long framePosition() {
-            return line.getLongFramePosition();
-        }
-
-        @Override
-        public void close() {
-            line.close();
         }
     }
 }

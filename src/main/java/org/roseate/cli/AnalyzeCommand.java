@@ -43,9 +43,6 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
     Format format;
 
-
-
-
     @Option(names = "--freqs", paramLabel = "F1,F2,…", description = "response points in Hz (default: a log grid over the range)")
     String freqs;
 

@@ -47,9 +47,6 @@ final class CompareCommand implements Callable<Integer> {
     @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
     Format format;
 
-
-
-
     @Option(names = "--plot", paramLabel = "FILE.png|FILE.svg", description = "also draw the comparison")
     Path plot;
 

@@ -68,9 +68,6 @@ final class FitCommand implements Callable<Integer> {
     @Option(names = "--limits", defaultValue = "R=1k-2M2,C=100p-1u", description = "allowed values (default: ${DEFAULT-VALUE})")
     String limits;
 
-
-
-
     @Option(names = "--starts", description = "continuous starts (default: 4, at least the thread count)")
     Integer starts;
 

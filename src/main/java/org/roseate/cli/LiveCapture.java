@@ -44,8 +44,7 @@ final class LiveCapture {
             throw new UserInputException("--level " + m.levelDbfs + " dBFS: above -10 dBFS needs --allow-loud (and 0 dBFS is the limit)");
         }
         // Status goes to stderr, so stdout carries only the measurement (JSON and CSV stay clean).
-        PrintWriter err = m.spec.commandLine().getErr();
-        PrintWriter out = err;
+        PrintWriter out = m.spec.commandLine().getErr();
         int channels = m.transfer ? 2 : Math.max(1, m.channel == null ? 1 : m.channel);
         long frames = Math.round(m.seconds * m.rateHz);
         int bufferFrames = (int) Math.round(BUFFER_SECONDS * m.rateHz);
@@ -77,7 +76,7 @@ final class LiveCapture {
             out.flush();
             engine.start();
             CaptureEngine.Delivery delivery = engine.deliverTo(sink);
-            Progress progress = new Progress(err, "recording");
+            Progress progress = new Progress(out, "recording");
             long deadline = System.nanoTime() + (long) ((m.seconds + 5) * 1e9);
             while (sink.framesReceived() < frames && engine.failure() == null && System.nanoTime() < deadline) {
                 progress.update((double) sink.framesReceived() / frames);
@@ -101,7 +100,7 @@ final class LiveCapture {
             sink.finish();
             file.commit();
             if (engine.droppedFrames() > 0) {
-                err.println("roseate: note: " + engine.droppedFrames() + " frames were dropped while recording");
+                out.println("roseate: note: " + engine.droppedFrames() + " frames were dropped while recording");
             }
             if (m.saveCapture != null) {
                 out.println("Saved the capture to " + m.saveCapture);

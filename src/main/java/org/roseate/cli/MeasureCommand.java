@@ -100,9 +100,6 @@ final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--reference-channel", paramLabel = "N", description = "with --transfer: the reference channel, from 1 (default 1)")
     Integer referenceChannel;
 
-
-
-
     @Option(names = "--against", paramLabel = "DESIGN.json", description = "compare with a design's predicted levels")
     Path against;
 

@@ -47,9 +47,6 @@ final class ToleranceCommand implements Callable<Integer> {
     @Option(names = "--limit", defaultValue = "1dB", description = "yield limit on the peak band deviation (default: ${DEFAULT-VALUE})")
     String limit;
 
-
-
-
     @Option(names = "--threads", description = "worker threads (default: all cores; results do not depend on it)")
     Integer threads;
 

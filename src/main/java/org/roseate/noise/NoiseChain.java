@@ -86,8 +86,7 @@ public final class NoiseChain implements FrameSource {
 
     /** As {@link #design(Zpk, ChainSettings)}, with a name for {@link #describe()}. */
     public static NoiseChain design(Zpk analog, ChainSettings s, String name) {
-        BandTable bands = fidelityBands(s.sampleRateHz());
-        double gainMatchHz = gainMatchHz(bands);
+        double gainMatchHz = gainMatchHz(fidelityBands(s.sampleRateHz()));
         FidelityReport report = fidelity(analog, s.sampleRateHz());
         OversampledFilter f = OversampledFilter.design(analog, s.sampleRateHz(), report.factor(), PrewarpRule.PER_ROOT,
                 gainMatchHz);
