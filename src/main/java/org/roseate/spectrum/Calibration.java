@@ -118,6 +118,64 @@ public record Calibration(String source, double sampleRateHz, int segmentLength,
         return measured.dividedBy(frequenciesHz, re, im);
     }
 
+    /**
+     * |H|² of the chain at each frequency, interpolated as {@link #apply} does (linearly on re and im,
+     * held constant beyond the ends): the factor a noise-source density is divided by.
+     *
+     * @param hz frequencies, Hz, any order
+     */
+    public double[] magnitudeSquaredAt(double[] hz) {
+        double[] out = new double[hz.length];
+        for (int k = 0; k < hz.length; k++) {
+            double f = hz[k];
+            double cr;
+            double ci;
+            if (f <= frequenciesHz[0]) {
+                cr = re[0];
+                ci = im[0];
+            } else if (f >= frequenciesHz[frequenciesHz.length - 1]) {
+                cr = re[re.length - 1];
+                ci = im[im.length - 1];
+            } else {
+                int j = java.util.Arrays.binarySearch(frequenciesHz, f);
+                if (j < 0) {
+                    j = -j - 2;
+                }
+                j = Math.min(j, frequenciesHz.length - 2);
+                double t = (f - frequenciesHz[j]) / (frequenciesHz[j + 1] - frequenciesHz[j]);
+                cr = re[j] + t * (re[j + 1] - re[j]);
+                ci = im[j] + t * (im[j + 1] - im[j]);
+            }
+            out[k] = cr * cr + ci * ci;
+        }
+        return out;
+    }
+
+    /**
+     * The chain's low corner: the highest calibrated frequency below {@value #CORNER_REFERENCE_HZ} Hz
+     * where |H| has fallen {@code dropDb} below its value at {@value #CORNER_REFERENCE_HZ} Hz (a sound
+     * card's AC coupling), Hz; NaN when it never falls that far within the calibration. Below it the
+     * correction is large and rests on a falling response, so readings there are marked.
+     *
+     * @param dropDb &gt; 0, dB
+     */
+    public double lowCornerHz(double dropDb) {
+        double ref = 10 * Math.log10(magnitudeSquaredAt(new double[] {CORNER_REFERENCE_HZ})[0]);
+        for (int k = frequenciesHz.length - 1; k >= 0; k--) {
+            if (frequenciesHz[k] >= CORNER_REFERENCE_HZ) {
+                continue;
+            }
+            double db = 10 * Math.log10(re[k] * re[k] + im[k] * im[k]);
+            if (db < ref - dropDb) {
+                return frequenciesHz[k];
+            }
+        }
+        return Double.NaN;
+    }
+
+    /** The frequency the low corner is judged against, Hz. */
+    public static final double CORNER_REFERENCE_HZ = 1000;
+
     /** Writes the file atomically, replacing an existing one. */
     public void write(Path file) throws IOException {
         ObjectMapper m = new ObjectMapper();
