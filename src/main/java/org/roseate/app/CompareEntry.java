@@ -7,7 +7,7 @@ import org.roseate.compare.BandReading;
 import org.roseate.compare.DesignAnalysis;
 import org.roseate.compare.TargetSlope;
 import org.roseate.model.CircuitModel;
-import org.roseate.spectrum.NoiseSourceResult;
+import org.roseate.measure.MeasureResult;
 
 /**
  * One column of the comparison: a design's predicted or a capture's measured band levels over the
@@ -44,11 +44,12 @@ record CompareEntry(String name, String kind, List<String> labels, double[] midH
                 c.readings().stream().mapToDouble(BandReading::deviationDb).toArray(), c.maxBandDeviationDb());
     }
 
-    /** A capture's measured levels ({@link NoiseSourceResult}, as {@code measure} prints them). */
-    static CompareEntry ofCapture(String name, NoiseSourceResult r, BandTable table) {
-        return new CompareEntry(name, "capture", labels(table), table.midHz(), r.normalizedDb(),
-                r.deviation().readings().stream().mapToDouble(BandReading::deviationDb).toArray(),
-                r.deviation().maxBandDeviationDb());
+    /** A capture's measured levels ({@link MeasureResult}, as {@code measure} prints them). */
+    static CompareEntry ofCapture(String name, MeasureResult r, BandTable table) {
+        return new CompareEntry(name, "capture", labels(table), table.midHz(),
+                r.bands().stream().mapToDouble(org.roseate.measure.BandResult::normalizedDb).toArray(),
+                r.bands().stream().mapToDouble(org.roseate.measure.BandResult::deviationDb).toArray(),
+                r.maxBandDeviationDb().value());
     }
 
     /** The band nearest 1 kHz in log frequency: the same reference the measurement results use. */

@@ -133,16 +133,16 @@ final class CompareView {
     /** Analyses a capture in noise-source mode on a worker, then adds it. */
     void addCapture(Path p) {
         AnalysisSettings s = window.settings();
-        MeasureSetup setup = new MeasureSetup(MeasureSetup.Mode.NOISE_SOURCE, org.roseate.spectrum.WelchSettings.Averaging.LINEAR,
-                s, 0, 0, null, null);
-        Task<MeasureOutcome> task = new Task<>() {
+        MeasureSetup setup = new MeasureSetup(org.roseate.measure.MeasureMode.NOISE_SOURCE,
+                org.roseate.spectrum.WelchSettings.Averaging.LINEAR, s, 0, 0, null, null, org.roseate.measure.BandReader.WELCH);
+        Task<org.roseate.measure.MeasureResult> task = new Task<>() {
             @Override
-            protected MeasureOutcome call() throws Exception {
+            protected org.roseate.measure.MeasureResult call() throws Exception {
                 return FileMeasurement.run(p, setup, f -> updateProgress(f, 1), this::isCancelled, o -> { });
             }
         };
         window.tasks().run("Analysing " + p.getFileName(), task,
-                out -> entries.add(CompareEntry.ofCapture(p.getFileName().toString(), out.noise(), s.table())),
+                out -> entries.add(CompareEntry.ofCapture(p.getFileName().toString(), out, s.table())),
                 msg -> {
                     info.setText(msg);
                     window.showStatus(msg);

@@ -12,12 +12,15 @@ import org.roseate.io.AtomicOutput;
 import org.roseate.io.SampleEncoding;
 import org.roseate.io.WavFormat;
 import org.roseate.io.WavWriter;
+import org.roseate.measure.MeasureException;
+import org.roseate.measure.MeasurePipeline;
+import org.roseate.measure.MeasureResult;
 
 /**
  * A measurement from a sound-card input: the core's {@link CaptureEngine} fills its ring on the
- * capture thread; its delivery thread feeds a {@link MeasureAnalyzer}, keeps a copy of the audio
- * (up to {@link #MAX_KEEP_SECONDS}) for saving, and publishes an immutable {@link MeasureOutcome}
- * after each new segment. The UI polls {@link #latest()}.
+ * capture thread; its delivery thread feeds the core's {@link MeasurePipeline} (the same one files go
+ * through), keeps a copy of the audio (up to {@link #MAX_KEEP_SECONDS}) for saving, and publishes an
+ * immutable {@link MeasureResult} after each new segment. The UI polls {@link #latest()}.
  */
 final class LiveMeasurement implements AutoCloseable {
     /** Longest capture kept for "Save capture", s (2 min of stereo at 48 kHz is 46 MB of floats). */
@@ -25,8 +28,8 @@ final class LiveMeasurement implements AutoCloseable {
 
     private final CaptureEngine engine;
     private final CaptureEngine.Delivery delivery;
-    private final MeasureAnalyzer analyzer;
-    private final AtomicReference<MeasureOutcome> latest = new AtomicReference<>();
+    private final MeasurePipeline analyzer;
+    private final AtomicReference<MeasureResult> latest = new AtomicReference<>();
     private final AtomicReference<String> problem = new AtomicReference<>();
     private final List<float[]> kept = new ArrayList<>();
     private final long maxKeptSamples;
@@ -37,11 +40,12 @@ final class LiveMeasurement implements AutoCloseable {
     /**
      * Starts capturing from an opened line.
      *
-     * @throws IllegalArgumentException when the setup does not fit the line (channels, rate)
+     * @throws org.roseate.measure.MeasureException when the setup does not fit the line (channels, rate)
      */
     LiveMeasurement(InputLine line, MeasureSetup setup) {
         this.name = line.deviceName();
-        this.analyzer = new MeasureAnalyzer(setup, line.sampleRateHz(), line.channels());
+        this.analyzer = new MeasurePipeline(setup.request(), name, line.sampleRateHz(), line.channels(),
+                Math.scalb(1.0, -(line.bitsPerSample() - 1)));
         this.maxKeptSamples = (long) (MAX_KEEP_SECONDS * line.sampleRateHz()) * line.channels();
         this.engine = new CaptureEngine(line, Math.max(2 * line.sampleRateHz(), 64 * 1024), 2.0);
         engine.start();
@@ -60,18 +64,24 @@ final class LiveMeasurement implements AutoCloseable {
             }
             keptSamples += n;
         }
-        analyzer.accept(interleaved, frames);
-        if (analyzer.averages() != lastAverages) {
-            lastAverages = analyzer.averages();
-            try {
-                latest.set(analyzer.result(name, false));
-            } catch (IllegalArgumentException e) {
-                problem.set(name + ": " + e.getMessage());
+        if (problem.get() != null) {
+            return;
+        }
+        try {
+            analyzer.accept(interleaved, frames);
+            if (analyzer.averages() != lastAverages) {
+                lastAverages = analyzer.averages();
+                MeasureResult r = analyzer.result(false);
+                if (r != null) {
+                    latest.set(r);
+                }
             }
+        } catch (MeasureException e) {
+            problem.set(e.getMessage());
         }
     }
 
-    MeasureOutcome latest() {
+    MeasureResult latest() {
         return latest.get();
     }
 

@@ -1,7 +1,6 @@
 package org.roseate.app;
 
 import java.io.IOException;
-import java.io.StringWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -32,14 +31,16 @@ import javafx.scene.layout.VBox;
 import org.roseate.audio.Devices;
 import org.roseate.audio.InputLine;
 import org.roseate.compare.BandReading;
+import org.roseate.measure.BandReader;
+import org.roseate.measure.BandResult;
+import org.roseate.measure.MeasureCsv;
+import org.roseate.measure.MeasureMode;
+import org.roseate.measure.MeasureResult;
+import org.roseate.measure.ResponsePoint;
 import org.roseate.compare.DesignAnalysis;
 import org.roseate.io.AtomicOutput;
-import org.roseate.io.CsvWriter;
-import org.roseate.spectrum.BandLevel;
 import org.roseate.spectrum.Calibration;
 import org.roseate.spectrum.CalibrationException;
-import org.roseate.spectrum.NoiseSourceResult;
-import org.roseate.spectrum.TransferResult;
 import org.roseate.spectrum.WelchSettings;
 
 /**
@@ -47,7 +48,7 @@ import org.roseate.spectrum.WelchSettings;
  * input (the core's capture engine), in noise-source or transfer mode, with linear or exponential
  * averaging. Third-octave bars of the deviation from the target, with ±1σ whiskers and the design's
  * own deviation as marks; in transfer mode also |H| against the design and the coherence.
- * Results arrive as immutable {@link MeasureOutcome}s and are drawn at display rate.
+ * Results arrive as the core's immutable {@link MeasureResult}s and are drawn at display rate.
  */
 final class MeasureView {
     static final int RATE_HZ = 48000;
@@ -59,9 +60,10 @@ final class MeasureView {
     private final RadioButton fromInput = new RadioButton("Input device");
     private final Label fileLabel = new Label("no file chosen");
     private final ComboBox<String> input = new ComboBox<>();
-    private final ComboBox<MeasureSetup.Mode> mode = new ComboBox<>(FXCollections.observableArrayList(MeasureSetup.Mode.values()));
+    private final ComboBox<MeasureMode> mode = new ComboBox<>(FXCollections.observableArrayList(MeasureMode.values()));
+    private final ComboBox<BandReader> reader = new ComboBox<>(FXCollections.observableArrayList(BandReader.values()));
     private final ComboBox<String> averaging = new ComboBox<>(FXCollections.observableArrayList(
-            "Linear (plain mean)", "Exponential (" + MeasureSetup.EXPONENTIAL_SEGMENTS + " segments)"));
+            "Linear (plain mean)", "Exponential (" + org.roseate.measure.MeasureRequest.DEFAULT_EXPONENTIAL_SEGMENTS + " segments)"));
     private final Spinner<Integer> responseChannel = new Spinner<>(1, 8, 1);
     private final Spinner<Integer> referenceChannel = new Spinner<>(1, 8, 1);
     private final Button start = new Button("Start");
@@ -77,12 +79,12 @@ final class MeasureView {
     private final LineChart<Number, Number> magnitudeChart;
     private final LineChart<Number, Number> coherenceChart;
     private final VBox transferBox;
-    private final AtomicReference<MeasureOutcome> live = new AtomicReference<>();
+    private final AtomicReference<MeasureResult> live = new AtomicReference<>();
     private final AnimationTimer poll;
     private Path file;
     private Calibration calibration;
     private LiveMeasurement capture;
-    private MeasureOutcome shown;
+    private MeasureResult shown;
 
     MeasureView(MainWindow window) {
         this.window = window;
@@ -90,12 +92,13 @@ final class MeasureView {
         fromFile.setToggleGroup(g);
         fromInput.setToggleGroup(g);
         fromFile.setSelected(true);
-        mode.setValue(MeasureSetup.Mode.NOISE_SOURCE);
+        mode.setValue(MeasureMode.NOISE_SOURCE);
+        reader.setValue(BandReader.WELCH);
         averaging.setValue(averaging.getItems().get(0));
         referenceChannel.getValueFactory().setValue(1);
         responseChannel.getValueFactory().setValue(1);
         mode.valueProperty().addListener((o, a, b) -> {
-            responseChannel.getValueFactory().setValue(b == MeasureSetup.Mode.TRANSFER ? 2 : 1);
+            responseChannel.getValueFactory().setValue(b == MeasureMode.TRANSFER ? 2 : 1);
             updateModeVisibility();
         });
         input.getItems().add(DEFAULT_INPUT);
@@ -164,6 +167,7 @@ final class MeasureView {
         p.add(ListenView.title("Analysis"), 0, r++, 2, 1);
         p.addRow(r++, new Label("Mode"), mode);
         p.addRow(r++, new Label("Averaging"), averaging);
+        p.addRow(r++, new Label("Band reader"), reader);
         p.addRow(r++, new Label("Response channel"), responseChannel);
         p.addRow(r++, new Label("Reference channel"), referenceChannel);
         p.add(new HBox(8, start, stopButton), 1, r++);
@@ -182,6 +186,7 @@ final class MeasureView {
         input.setPrefWidth(220);
         mode.setPrefWidth(220);
         averaging.setPrefWidth(220);
+        reader.setPrefWidth(220);
         responseChannel.setPrefWidth(80);
         referenceChannel.setPrefWidth(80);
         p.setPrefWidth(380);
@@ -201,8 +206,9 @@ final class MeasureView {
     }
 
     private void updateModeVisibility() {
-        boolean transfer = mode.getValue() == MeasureSetup.Mode.TRANSFER;
+        boolean transfer = mode.getValue() == MeasureMode.TRANSFER;
         referenceChannel.setDisable(!transfer);
+        reader.setDisable(transfer);
         transferBox.setVisible(transfer);
         transferBox.setManaged(transfer);
     }
@@ -245,7 +251,7 @@ final class MeasureView {
         fromFile.setSelected(true);
     }
 
-    void setMode(MeasureSetup.Mode m) {
+    void setMode(MeasureMode m) {
         mode.setValue(m);
     }
 
@@ -253,7 +259,8 @@ final class MeasureView {
         WelchSettings.Averaging avg = averaging.getSelectionModel().getSelectedIndex() == 1
                 ? WelchSettings.Averaging.EXPONENTIAL : WelchSettings.Averaging.LINEAR;
         return new MeasureSetup(mode.getValue(), avg, window.settings(), responseChannel.getValue() - 1,
-                referenceChannel.getValue() - 1, window.model(), calibration);
+                referenceChannel.getValue() - 1, window.model(), calibration,
+                mode.getValue() == MeasureMode.TRANSFER ? BandReader.WELCH : reader.getValue());
     }
 
     /** Starts measuring the chosen file or input. */
@@ -268,9 +275,9 @@ final class MeasureView {
                 return;
             }
             Path f = file;
-            Task<MeasureOutcome> task = new Task<>() {
+            Task<MeasureResult> task = new Task<>() {
                 @Override
-                protected MeasureOutcome call() throws IOException {
+                protected MeasureResult call() {
                     return FileMeasurement.run(f, s, p -> updateProgress(p, 1), this::isCancelled, live::set);
                 }
             };
@@ -291,7 +298,7 @@ final class MeasureView {
             return;
         }
         String dev = DEFAULT_INPUT.equals(input.getValue()) ? null : input.getValue();
-        int channels = s.mode() == MeasureSetup.Mode.TRANSFER
+        int channels = s.mode() == MeasureMode.TRANSFER
                 ? Math.max(2, Math.max(s.referenceChannel(), s.responseChannel()) + 1) : s.responseChannel() + 1;
         readout.setText("Opening the input…");
         start.setDisable(true);
@@ -337,7 +344,7 @@ final class MeasureView {
     void showLatest() {
         LiveMeasurement c = capture;
         if (c != null) {
-            MeasureOutcome o = c.latest();
+            MeasureResult o = c.latest();
             if (o != null) {
                 live.set(o);
             }
@@ -347,46 +354,52 @@ final class MeasureView {
                 stop();
             }
         }
-        MeasureOutcome o = live.get();
+        MeasureResult o = live.get();
         if (o == null || o == shown) {
             return;
         }
         shown = o;
-        if (o.noise() != null) {
-            showNoise(o.noise());
+        if (o.mode() == MeasureMode.NOISE_SOURCE) {
+            showNoise(o);
         } else {
-            showTransfer(o.transfer());
+            showTransfer(o);
         }
         readout.setText(describe(o));
     }
 
-    private String describe(MeasureOutcome o) {
-        if (o.noise() != null) {
-            NoiseSourceResult n = o.noise();
-            return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages, T_eff %.1f s, %.3g Hz bins. Slope %+.2f dB/octave "
-                    + "(target %+.2f); peak band deviation ±%.2f dB; levels in %s.", o.source(), o.complete() ? "" : " (running)",
-                    o.seconds(), n.density().averages(), n.density().effectiveDurationSeconds(), n.density().binWidthHz(),
-                    n.slopeDbPerOctave(), n.target().dbPerOctave(), n.deviation().maxBandDeviationDb(),
-                    n.density().unit().levelSymbol());
+    private String describe(MeasureResult o) {
+        String clip = o.clippedSamples() > 0 ? String.format(Locale.ROOT, " %d clipped or flat-topped samples.", o.clippedSamples()) : "";
+        String warn = o.warnings().isEmpty() ? "" : " " + o.warnings().size() + " warning" + (o.warnings().size() == 1 ? "" : "s")
+                + ": see the marks.";
+        if (o.mode() == MeasureMode.NOISE_SOURCE) {
+            return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages, T_eff %.1f s, %.3g Hz bins, %s. Slope %+.2f ± %.2f "
+                    + "dB/octave (target %+.2f); peak band deviation %.2f ± %.2f dB; levels in %s; RMS %.1f dBFS, DC %+.2g FS.%s%s",
+                    org.roseate.measure.MeasureTable.displayName(o.source()), o.complete() ? "" : " (running)",
+                    o.secondsAnalysed(), o.averages(), o.effectiveSeconds(), o.resolutionHz(), o.request().reader(),
+                    o.slopeDbPerOctave().value(), o.slopeDbPerOctave().uncertainty(), o.request().target().dbPerOctave(),
+                    o.maxBandDeviationDb().value(), o.maxBandDeviationDb().uncertainty(), o.levelUnit(),
+                    o.measuredChannel().rmsDbfs(), o.measuredChannel().dcOffsetFs(), clip, warn);
         }
-        TransferResult t = o.transfer();
-        long trusted = t.points().stream().filter(TransferResult.Point::trusted).count();
-        return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages%s. Slope %+.2f dB/octave; peak band deviation ±%.2f dB; "
-                + "%d of %d points with γ² ≥ %.2f.", o.source(), o.complete() ? "" : " (running)", o.seconds(),
-                t.estimate().averages(), calibration != null ? ", calibrated" : "", t.slopeDbPerOctave(),
-                t.deviation().maxBandDeviationDb(), trusted, t.points().size(), t.coherenceThreshold());
+        long trusted = o.points().stream().filter(ResponsePoint::trusted).count();
+        long bandsTrusted = o.bands().stream().filter(BandResult::trusted).count();
+        return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages%s. Slope %+.2f ± %.2f dB/octave; peak band deviation "
+                + "%.2f ± %.2f dB; %d of %d bands and %d of %d points with γ² ≥ %.2f; levels are gain in dB re 1.%s%s",
+                org.roseate.measure.MeasureTable.displayName(o.source()), o.complete() ? "" : " (running)",
+                o.secondsAnalysed(), o.averages(), calibration != null ? ", calibrated" : "", o.slopeDbPerOctave().value(),
+                o.slopeDbPerOctave().uncertainty(), o.maxBandDeviationDb().value(), o.maxBandDeviationDb().uncertainty(),
+                bandsTrusted, o.bands().size(), trusted, o.points().size(), o.request().coherenceThreshold(), clip, warn);
     }
 
-    private void showNoise(NoiseSourceResult n) {
-        List<BandLevel> levels = n.levels();
-        List<BandReading> dev = n.deviation().readings();
-        double[] v = dev.stream().mapToDouble(BandReading::deviationDb).toArray();
-        double[] w = levels.stream().mapToDouble(BandLevel::uncertaintyDb).toArray();
-        bands.setTitle(titleFor(levels) + ": deviation from the target " + n.target().describe());
+    private void showNoise(MeasureResult n) {
+        List<BandResult> levels = n.bands();
+        double[] v = levels.stream().mapToDouble(BandResult::deviationDb).toArray();
+        double[] w = levels.stream().mapToDouble(BandResult::uncertaintyDb).toArray();
+        bands.setTitle(titleFor(levels) + ": deviation from the target " + n.request().target().describe()
+                + " (weighted centring)");
         bands.show(levels.stream().map(l -> l.band().label()).toList(), v, w, designMarks());
     }
 
-    private String titleFor(List<BandLevel> levels) {
+    private String titleFor(List<BandResult> levels) {
         return levels.isEmpty() || levels.get(0).band().fraction().b() == 3 ? "Third-octave bands" : "Octave bands";
     }
 
@@ -400,11 +413,13 @@ final class MeasureView {
                 .mapToDouble(BandReading::deviationDb).toArray();
     }
 
-    private void showTransfer(TransferResult t) {
-        bands.setTitle(titleFor(t.levels()) + ": transfer deviation from the target " + t.target().describe());
-        bands.show(t.levels().stream().map(l -> l.band().label()).toList(),
-                t.deviation().readings().stream().mapToDouble(BandReading::deviationDb).toArray(), null, designMarks());
-        List<TransferResult.Point> pts = t.points();
+    private void showTransfer(MeasureResult t) {
+        bands.setTitle(titleFor(t.bands()) + ": transfer deviation from the target " + t.request().target().describe()
+                + " (untrusted bands: no whisker)");
+        bands.show(t.bands().stream().map(l -> l.band().label()).toList(),
+                t.bands().stream().mapToDouble(BandResult::deviationDb).toArray(),
+                t.bands().stream().mapToDouble(b -> b.trusted() ? b.uncertaintyDb() : Double.NaN).toArray(), designMarks());
+        List<ResponsePoint> pts = t.points();
         int ref = 0;
         for (int i = 0; i < pts.size(); i++) {
             if (Math.abs(Math.log(pts.get(i).hz() / 1000)) < Math.abs(Math.log(pts.get(ref).hz() / 1000))) {
@@ -417,7 +432,7 @@ final class MeasureView {
         double[] target = new double[hz.length];
         double[] coh = new double[hz.length];
         for (int i = 0; i < hz.length; i++) {
-            TransferResult.Point p = pts.get(i);
+            ResponsePoint p = pts.get(i);
             hz[i] = p.hz();
             db[i] = p.db() - pts.get(ref).db();
             model[i] = p.modelDb() - pts.get(ref).modelDb();
@@ -449,7 +464,7 @@ final class MeasureView {
     }
 
     private void saveCalibration() {
-        MeasureOutcome o = live.get();
+        MeasureResult o = live.get();
         if (o == null || o.rawTransfer() == null) {
             readout.setText("Measure a loopback (output straight to input) in transfer mode first.");
             return;
@@ -484,7 +499,7 @@ final class MeasureView {
     }
 
     private void exportCsv() {
-        MeasureOutcome o = live.get();
+        MeasureResult o = live.get();
         if (o == null) {
             readout.setText("Nothing measured yet.");
             return;
@@ -500,31 +515,9 @@ final class MeasureView {
                 });
     }
 
-    /** The band table as CSV: nominal, edges, level, ±, deviation, level re 1 kHz and difference from the design. */
-    static String csv(MeasureOutcome o) throws IOException {
-        List<BandLevel> levels = o.noise() != null ? o.noise().levels() : o.transfer().levels();
-        List<BandReading> dev = o.noise() != null ? o.noise().deviation().readings() : o.transfer().deviation().readings();
-        double[] norm = o.noise() != null ? o.noise().normalizedDb() : o.transfer().normalizedDb();
-        double[] design = o.noise() != null ? o.noise().designDifferenceDb() : o.transfer().designDifferenceDb();
-        StringWriter sw = new StringWriter();
-        List<String> header = new ArrayList<>(List.of("nominalHz", "lowHz", "highHz", "db", "uncertaintyDb",
-                "deviationDb", "normalizedDb"));
-        if (design != null) {
-            header.add("designDifferenceDb");
-        }
-        CsvWriter w = new CsvWriter(sw, header);
-        for (int i = 0; i < levels.size(); i++) {
-            BandLevel b = levels.get(i);
-            if (design != null) {
-                w.numberRow(b.band().nominalHz(), b.band().lowHz(), b.band().highHz(), b.levelDb(), b.uncertaintyDb(),
-                        dev.get(i).deviationDb(), norm[i], design[i]);
-            } else {
-                w.numberRow(b.band().nominalHz(), b.band().lowHz(), b.band().highHz(), b.levelDb(), b.uncertaintyDb(),
-                        dev.get(i).deviationDb(), norm[i]);
-            }
-        }
-        w.flush();
-        return sw.toString();
+    /** The CSV export: the core's writer, so it is byte for byte what {@code measure --format csv} prints. */
+    static String csv(MeasureResult o) {
+        return MeasureCsv.of(o);
     }
 
     // ---- for tests ----
@@ -533,11 +526,11 @@ final class MeasureView {
         return bands;
     }
 
-    MeasureOutcome latest() {
+    MeasureResult latest() {
         return live.get();
     }
 
-    MeasureOutcome shown() {
+    MeasureResult shown() {
         return shown;
     }
 

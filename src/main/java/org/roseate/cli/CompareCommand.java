@@ -20,6 +20,7 @@ import org.roseate.model.CircuitModel;
 import org.roseate.plot.ChartFiles;
 import org.roseate.plot.Charts;
 import org.roseate.plot.FrequencyChart;
+import org.roseate.tools.CaptureColumn;
 import org.roseate.tools.ComparedColumn;
 import org.roseate.tools.DesignColumn;
 import picocli.CommandLine.Command;
@@ -67,10 +68,8 @@ final class CompareCommand implements Callable<Integer> {
             if (f.getFileName().toString().toLowerCase(java.util.Locale.ROOT).endsWith(".wav")) {
                 try {
                     columns.add(org.roseate.tools.CaptureColumn.of(f, channel - 1, r, target, fraction));
-                } catch (org.roseate.io.WavFormatException | IllegalArgumentException e) {
+                } catch (org.roseate.measure.MeasureException | IllegalArgumentException e) {
                     throw new UserInputException(e.getMessage());
-                } catch (java.io.IOException e) {
-                    throw new UserInputException(f.getFileName() + ": cannot read (" + e.getMessage() + ")");
                 }
                 continue;
             }
@@ -98,7 +97,8 @@ final class CompareCommand implements Callable<Integer> {
 
     static String table(List<ComparedColumn> cols, TargetSlope target, BandFraction fraction) {
         StringBuilder sb = new StringBuilder();
-        sb.append(Numbers.f("Target %s, %s bands. Level: band level minus the 1 kHz band's; dev: centred deviation from the target.%n%n",
+        sb.append(Numbers.f("Target %s, %s bands. Level: band level minus the 1 kHz band's; dev: centred deviation from the target "
+                + "(captures: inverse-variance weighted centring; ±: one standard deviation of a capture's band level).%n%n",
                 target.describe(), fraction.displayName()));
         for (int i = 0; i < cols.size(); i++) {
             sb.append(Numbers.f("  [%d] %s%n", i + 1, cols.get(i).name()));
@@ -106,6 +106,9 @@ final class CompareCommand implements Callable<Integer> {
         sb.append(Numbers.f("%n%8s", "band"));
         for (int i = 0; i < cols.size(); i++) {
             sb.append(Numbers.f(" %10s %8s", "[" + (i + 1) + "] level", "dev"));
+            if (cols.get(i) instanceof CaptureColumn) {
+                sb.append(Numbers.f(" %7s", "±dB"));
+            }
         }
         sb.append('\n');
         int n = cols.get(0).bands().readings().size();
@@ -114,13 +117,21 @@ final class CompareCommand implements Callable<Integer> {
             sb.append(Numbers.f("%8s", cols.get(0).bands().readings().get(b).band().label()));
             for (int i = 0; i < cols.size(); i++) {
                 sb.append(Numbers.f(" %+10.3f %+8.3f", norm.get(i)[b], cols.get(i).bands().readings().get(b).deviationDb()));
+                if (cols.get(i) instanceof CaptureColumn c) {
+                    double u = c.uncertaintiesDb()[b];
+                    sb.append(Double.isNaN(u) ? Numbers.f(" %7s", "—") : Numbers.f(" %7.3f", u));
+                }
             }
             sb.append('\n');
         }
         sb.append('\n');
         row(sb, "slope", "least-squares slope, dB/octave", cols, ComparedColumn::slopeDbPerOctave, "%+20.3f");
+        row(sb, "± slope", "captures: one standard deviation of the slope, dB/octave", cols,
+                c -> c instanceof CaptureColumn k ? k.result().slopeDbPerOctave().uncertainty() : Double.NaN, "%20.3f");
         row(sb, "peak", "pointwise peak deviation, ±dB", cols, ComparedColumn::maxDeviationDb, "%20.3f");
         row(sb, "band pk", "band peak deviation, ±dB", cols, ComparedColumn::maxBandDeviationDb, "%20.3f");
+        row(sb, "± pk", "captures: one standard deviation of the band peak, dB", cols,
+                c -> c instanceof CaptureColumn k ? k.result().maxBandDeviationDb().uncertainty() : Double.NaN, "%20.3f");
         row(sb, "ripple", "largest minus smallest band deviation, dB", cols, ComparedColumn::rippleDb, "%20.3f");
         return sb.toString();
     }
@@ -136,16 +147,18 @@ final class CompareCommand implements Callable<Integer> {
     }
 
     static String csv(List<ComparedColumn> cols) {
-        StringBuilder sb = new StringBuilder("column,nominalHz,lowHz,highHz,db,levelRe1kHzDb,deviationDb\n");
+        StringBuilder sb = new StringBuilder("column,nominalHz,lowHz,highHz,db,levelRe1kHzDb,deviationDb,uncertaintyDb\n");
         for (ComparedColumn c : cols) {
             double[] norm = c.normalisedLevelsDb();
+            double[] u = c instanceof CaptureColumn k ? k.uncertaintiesDb() : null;
             List<BandReading> rs = c.bands().readings();
             for (int i = 0; i < rs.size(); i++) {
                 BandReading b = rs.get(i);
                 sb.append(quote(c.name())).append(',').append(Numbers.plain(b.band().nominalHz())).append(',')
                         .append(Numbers.plain(b.band().lowHz())).append(',').append(Numbers.plain(b.band().highHz())).append(',')
                         .append(Numbers.plain(b.levelDb())).append(',').append(Numbers.plain(norm[i])).append(',')
-                        .append(Numbers.plain(b.deviationDb())).append('\n');
+                        .append(Numbers.plain(b.deviationDb())).append(',')
+                        .append(u == null ? "" : Numbers.plain(u[i])).append('\n');
             }
         }
         return sb.toString();
@@ -170,6 +183,16 @@ final class CompareCommand implements Callable<Integer> {
             }
             o.put("maxBandDeviationDb", c.maxBandDeviationDb());
             o.put("rippleDb", c.rippleDb());
+            double[] u = null;
+            if (c instanceof CaptureColumn k) {
+                o.put("kind", "capture");
+                putOrNull(o, "slopeUncertaintyDbPerOctave", k.result().slopeDbPerOctave().uncertainty());
+                putOrNull(o, "maxBandDeviationUncertaintyDb", k.result().maxBandDeviationDb().uncertainty());
+                o.put("clippedSamples", k.result().clippedSamples());
+                u = k.uncertaintiesDb();
+            } else {
+                o.put("kind", "design");
+            }
             ArrayNode bs = o.putArray("bands");
             double[] norm = c.normalisedLevelsDb();
             List<BandReading> rs = c.bands().readings();
@@ -179,12 +202,23 @@ final class CompareCommand implements Callable<Integer> {
                 b.put("db", rs.get(i).levelDb());
                 b.put("levelRe1kHzDb", norm[i]);
                 b.put("deviationDb", rs.get(i).deviationDb());
+                if (u != null) {
+                    putOrNull(b, "uncertaintyDb", u[i]);
+                }
             }
         }
         try {
             return m.writeValueAsString(root) + "\n";
         } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
             throw new IllegalStateException(e);
+        }
+    }
+
+    private static void putOrNull(ObjectNode o, String key, double v) {
+        if (Double.isFinite(v)) {
+            o.put(key, v);
+        } else {
+            o.putNull(key);
         }
     }
 

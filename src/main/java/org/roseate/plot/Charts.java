@@ -104,15 +104,15 @@ public final class Charts {
     /**
      * The chart of {@code measure} in noise-source mode: band levels re the reference band with
      * ±1σ uncertainty whiskers, the target line and, when given, the design's predicted shape; below,
-     * each band's centred deviation from the target.
+     * each band's centred deviation from the target (when there is one).
      */
-    public static FrequencyChart measurement(String name, org.roseate.spectrum.NoiseSourceResult r) {
-        List<org.roseate.spectrum.BandLevel> lv = r.levels();
+    public static FrequencyChart measurement(String name, org.roseate.measure.MeasureResult r) {
+        List<org.roseate.measure.BandResult> lv = r.bands();
         int n = lv.size();
         double[] lo = new double[n];
         double[] hi = new double[n];
         double[] mid = new double[n];
-        double[] level = r.normalizedDb();
+        double[] level = new double[n];
         double[] wLo = new double[n];
         double[] wHi = new double[n];
         double[] dev = new double[n];
@@ -123,29 +123,36 @@ public final class Charts {
             lo[i] = b.lowHz();
             hi[i] = b.highHz();
             mid[i] = b.midHz();
+            level[i] = lv.get(i).normalizedDb();
             double u = lv.get(i).uncertaintyDb();
             wLo[i] = level[i] - (Double.isFinite(u) ? u : 0);
             wHi[i] = level[i] + (Double.isFinite(u) ? u : 0);
-            dev[i] = r.deviation().readings().get(i).deviationDb();
+            dev[i] = lv.get(i).deviationDb();
             if (b.equals(r.referenceBand())) {
                 ref = i;
             }
         }
-        double refTarget = ref < 0 ? 0 : 10 * Math.log10(r.target().bandPower(lo[ref], hi[ref]));
-        for (int i = 0; i < n; i++) {
-            target[i] = 10 * Math.log10(r.target().bandPower(lo[i], hi[i])) - refTarget;
-        }
+        var t = r.request().target();
         List<Curve> curves = new ArrayList<>();
-        curves.add(new Curve("target " + r.target().describe() + " in bands", mid, target, true));
-        if (r.designDifferenceDb() != null) {
+        if (t != null) {
+            double refTarget = ref < 0 ? 0 : 10 * Math.log10(t.bandPower(lo[ref], hi[ref]));
+            for (int i = 0; i < n; i++) {
+                target[i] = 10 * Math.log10(t.bandPower(lo[i], hi[i])) - refTarget;
+            }
+            curves.add(new Curve("target " + t.describe() + " in bands", mid, target, true));
+        }
+        if (r.hasDesign()) {
             double[] design = new double[n];
             for (int i = 0; i < n; i++) {
-                design[i] = level[i] - r.designDifferenceDb()[i];
+                design[i] = level[i] - lv.get(i).designDifferenceDb();
             }
             curves.add(new Curve("design (shape)", mid, design, false));
         }
         Panel top = new Panel("Band level re " + r.referenceBand().label() + " Hz band (dB)", curves,
                 List.of(new FrequencyChart.BandBars(name + " (±1σ)", lo, hi, level, wLo, wHi)), List.of());
+        if (t == null) {
+            return new FrequencyChart(name + ": measured bands", List.of(top));
+        }
         Panel bottom = new Panel("Band deviation from target (dB)", List.of(),
                 List.of(FrequencyChart.BandBars.of("deviation", lo, hi, dev)), List.of());
         return new FrequencyChart(name + ": measured bands", List.of(top, bottom));

@@ -197,12 +197,12 @@ class RoseateWindowTest {
             window.measure().start();
         });
         await(() -> window.measure().shown() != null && window.measure().shown().complete());
-        MeasureOutcome o = fx(() -> window.measure().shown());
-        assertNotNull(o.noise());
+        org.roseate.measure.MeasureResult o = fx(() -> window.measure().shown());
+        assertEquals(org.roseate.measure.MeasureMode.NOISE_SOURCE, o.mode());
         double[] bars = fx(() -> window.measure().bandChart().values());
         double[] whiskers = fx(() -> window.measure().bandChart().whiskers());
         assertEquals(31, bars.length);
-        List<BandLevel> levels = o.noise().levels();
+        List<org.roseate.measure.BandResult> levels = o.bands();
         int ref = CompareEntry.referenceIndex(window.settings().table());
         double[] marks = fx(() -> window.measure().bandChart().markers());
         assertNotNull(marks, "the design's deviation is marked");
@@ -217,7 +217,7 @@ class RoseateWindowTest {
         assertNotNull(fx(() -> window.measure().bandChart().markers()), "the design's deviation is marked");
         String csv = MeasureView.csv(o);
         assertEquals(32, csv.lines().count()); // header + 31 bands
-        assertTrue(csv.startsWith("nominalHz,lowHz,highHz,db,uncertaintyDb,deviationDb,normalizedDb,designDifferenceDb"));
+        assertTrue(csv.startsWith("nominalHz,lowHz,highHz,db,uncertaintyDb,deviationDb,normalizedDb,designDifferenceDb"), csv);
         snapshot("measure");
     }
 
@@ -229,13 +229,13 @@ class RoseateWindowTest {
         fxRun(() -> {
             window.tabs().getSelectionModel().select(2);
             window.measure().setFile(wav);
-            window.measure().setMode(MeasureSetup.Mode.TRANSFER);
+            window.measure().setMode(org.roseate.measure.MeasureMode.TRANSFER);
             window.measure().start();
         });
         await(() -> window.measure().shown() != null && window.measure().shown().complete());
-        MeasureOutcome o = fx(() -> window.measure().shown());
-        assertNotNull(o.transfer());
-        for (var p : o.transfer().points()) {
+        org.roseate.measure.MeasureResult o = fx(() -> window.measure().shown());
+        assertEquals(org.roseate.measure.MeasureMode.TRANSFER, o.mode());
+        for (var p : o.points()) {
             // y = x exactly (a wire): H1 = Gxy/Gxx = 1 and γ² = 1 to rounding (24-bit dither is per channel)
             assertEquals(0, p.db(), 0.05, p.hz() + " Hz");
             assertTrue(p.coherence() > 0.99, p.hz() + " Hz: γ² " + p.coherence());

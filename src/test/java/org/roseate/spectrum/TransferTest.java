@@ -153,22 +153,4 @@ class TransferTest {
         CalibrationException ex = assertThrows(CalibrationException.class, () -> back.apply(other.snapshot().transfer()));
         assertEquals(file + ": calibration was made at 48000 Hz, the capture is 44100 Hz", ex.getMessage());
     }
-
-    @Test
-    void resultReportsTrustAndTheTargetLine() {
-        double[] c = lowpass(1000, 0.7);
-        double[] x = SpectrumReference.gaussian(25, 1 << 16, 0.2);
-        TransferEstimate h = measure(x, filter(c, x), 4096);
-        BandTable table = BandTable.of(BandFraction.OCTAVE, 63, 8000);
-        TransferResult r = TransferResult.of(h, new double[] {100, 1000, 4000}, 0.9, table, TargetSlope.PINK, null);
-        assertEquals(3, r.points().size());
-        assertTrue(r.points().get(1).trusted());
-        // the target line passes the measured 1 kHz point and falls 3.0103 dB per octave (TargetSlope.PINK)
-        assertEquals(r.points().get(1).db(), r.points().get(1).targetDb(), 1e-12);
-        assertEquals(r.points().get(1).db() - 2 * TargetSlope.PINK.dbPerOctave() * -1, r.points().get(2).targetDb(), 1e-9);
-        assertEquals(table.size(), r.levels().size());
-        assertEquals(1000, r.referenceBand().nominalHz());
-        assertEquals(0.0, r.normalizedDb()[r.levels().indexOf(r.levels().stream()
-                .filter(b -> b.band().nominalHz() == 1000).findFirst().orElseThrow())], 0.0);
-    }
 }
