@@ -1,5 +1,7 @@
 package org.roseate.cli;
 
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import org.roseate.digital.FidelityReport;
 
 /** Prints a digital-versus-analog fidelity report. */
@@ -17,5 +19,17 @@ final class Fidelity {
             sb.append(Numbers.f("%11.2f %11.2f %12.4f%n", b.lowHz(), b.comparedHighHz(), b.differenceDb()));
         }
         return sb.toString();
+    }
+
+    /** One object per band into {@code bands}: its edges, the part compared, the difference and the verdict. */
+    static void json(FidelityReport r, double toleranceDb, ArrayNode bands) {
+        for (FidelityReport.Band b : r.bands()) {
+            ObjectNode o = bands.addObject();
+            o.put("lowHz", b.lowHz());
+            o.put("highHz", b.highHz());
+            o.put("comparedHighHz", b.comparedHighHz());
+            o.put("differenceDb", b.differenceDb());
+            o.put("withinTolerance", Math.abs(b.differenceDb()) <= toleranceDb);
+        }
     }
 }

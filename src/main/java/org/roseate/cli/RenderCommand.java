@@ -1,10 +1,16 @@
 package org.roseate.cli;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.BufferedWriter;
 import java.io.IOException;
 import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.LinkOption;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
@@ -74,7 +80,7 @@ final class RenderCommand implements Callable<Integer> {
     @Option(names = "--soft-limit", description = "apply a soft limiter above −1 dBFS (off by default)")
     boolean softLimit;
 
-    @Option(names = "--volts-per-fs", paramLabel = "V", description = "control-rate mode: volts at full scale, for CSV values and statistics in volts")
+    @Option(names = "--volts-per-fs", paramLabel = "V", description = "control-rate mode only: volts at full scale, for CSV values and statistics in volts")
     Double voltsPerFs;
 
     @Option(names = "--force", description = "replace an existing output file")
@@ -96,14 +102,34 @@ final class RenderCommand implements Callable<Integer> {
         }
     }
 
+    enum Format { table, json }
+
+    @Option(names = "--format", defaultValue = "table", paramLabel = "table|json",
+            description = "what to print: a table, or JSON with the written file's figures (default: ${DEFAULT-VALUE})")
+    Format format;
+
     @Override
     public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         boolean control = controlRate != null;
+        picocli.CommandLine.ParseResult parsed = spec.commandLine().getParseResult();
+        if (control && parsed != null && parsed.hasMatchedOption("--rate")) {
+            throw new UserInputException("--rate and --control-rate both given: use --rate for audio files (44100 to 192000 Hz)"
+                    + " or --control-rate for slow control voltages (100 to 4000 Hz), not both");
+        }
+        if (voltsPerFs != null && !control) {
+            throw new UserInputException("--volts-per-fs has no meaning without --control-rate: it scales the CSV values and"
+                    + " statistics of control-rate renders; audio files are written at full scale");
+        }
         double rateHz = checkRate(control);
         if (!(seconds > 0) || seconds > 24 * 3600) {
             throw new UserInputException("--seconds: expected a duration from 0 to 86400 s, found " + seconds);
+        }
+        long frames = Math.round(seconds * rateHz);
+        if (frames < 1) {
+            throw new UserInputException(Numbers.f("--seconds: %s s is shorter than one sample at %.0f Hz (%.3g s)",
+                    Double.toString(seconds), rateHz, 1 / rateHz));
         }
         if (channels != 1 && channels != 2) {
             throw new UserInputException("--channels: expected 1 or 2, found " + channels);
@@ -130,14 +156,19 @@ final class RenderCommand implements Callable<Integer> {
         if (source == Source.design && design == null) {
             throw new UserInputException("render: name a design file, or use --source white or --source ideal-pink");
         }
+        if (!force && Files.exists(output, LinkOption.NOFOLLOW_LINKS)) {
+            // Checked before any work; AtomicOutput checks again when it commits.
+            throw new UserInputException(new OutputExistsException(output).getMessage());
+        }
         ChainSettings settings = new ChainSettings(rateHz, channels, identical, seed, levelDbfs, dist, softLimit);
         NoiseChain chain = chain(settings);
-        long frames = Math.round(seconds * rateHz);
 
-        out.println("Rendering " + chain.describe() + " to " + output.getFileName() + Numbers.f(": %.3f s at %.0f Hz, %d channel%s, %s",
-                frames / rateHz, rateHz, channels, channels == 1 ? "" : "s" + (identical ? " (identical)" : " (independent)"),
-                csv ? "CSV" : encoding.label().equals("32f") ? "32-bit float" : encoding.bitsPerSample() + "-bit PCM with TPDF dither"));
-        chain.fidelity().ifPresent(f -> out.print(Fidelity.table(f, NoiseChain.FIDELITY_TOLERANCE_DB)));
+        if (format == Format.table) {
+            out.println("Rendering " + chain.describe() + " to " + output.getFileName() + Numbers.f(": %.3f s at %.0f Hz, %d channel%s, %s",
+                    frames / rateHz, rateHz, channels, channels == 1 ? "" : "s" + (identical ? " (identical)" : " (independent)"),
+                    csv ? "CSV" : encoding.label().equals("32f") ? "32-bit float" : encoding.bitsPerSample() + "-bit PCM with TPDF dither"));
+            chain.fidelity().ifPresent(f -> out.print(Fidelity.table(f, NoiseChain.FIDELITY_TOLERANCE_DB)));
+        }
 
         SignalStatistics stats = control
                 ? new SignalStatistics(-1, 1, SignalStatistics.DEFAULT_BINS)
@@ -151,9 +182,58 @@ final class RenderCommand implements Callable<Integer> {
         } catch (IOException e) {
             throw new UserInputException("cannot write " + output.getFileName() + ": " + e.getMessage() + " (nothing was left behind)");
         }
-        printStatistics(out, stats, clipped, control);
+        if (format == Format.json) {
+            out.print(json(chain, frames, csv ? "csv" : encoding.label(), stats, clipped, control));
+            out.flush();
+        } else {
+            printStatistics(out, stats, clipped, control);
+        }
         return 0;
     }
+
+    /** The figures of the written file as JSON (keys named in the issue that asked for them). */
+    private String json(NoiseChain chain, long frames, String encodingLabel, SignalStatistics s, long clipped, boolean control) {
+        ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+        ObjectNode root = m.createObjectNode();
+        root.put("output", output.toString());
+        root.put("source", chain.describe());
+        root.put("sampleRateHz", chain.sampleRateHz());
+        root.put("frames", frames);
+        root.put("seconds", frames / chain.sampleRateHz());
+        root.put("channels", chain.channels());
+        root.put("encoding", encodingLabel);
+        root.put("requestedLevelDbfs", levelDbfs);
+        root.put("levelDbfs", s.rmsDbfs());
+        root.put("peakDbfs", s.peakDbfs());
+        root.put("crestFactorDb", s.crestFactorDb());
+        root.put("clippedSamples", clipped);
+        root.put("softLimiter", softLimit);
+        root.put("oversamplingFactor", chain.oversamplingFactor());
+        root.put("fidelityToleranceDb", NoiseChain.FIDELITY_TOLERANCE_DB);
+        ArrayNode bands = root.putArray("fidelity");
+        chain.fidelity().ifPresent(f -> Fidelity.json(f, NoiseChain.FIDELITY_TOLERANCE_DB, bands));
+        if (control) {
+            double k = voltsPerFs == null ? 1 : voltsPerFs;
+            root.put("unit", voltsPerFs == null ? "fs" : "volts");
+            if (voltsPerFs != null) {
+                root.put("voltsPerFs", voltsPerFs);
+            }
+            root.put("mean", s.mean() * k);
+            root.put("rms", s.rms() * k);
+            root.put("peak", s.peak() * k);
+            ObjectNode pct = root.putObject("percentiles");
+            for (double p : PERCENTILES) {
+                pct.put(p == (long) p ? Long.toString((long) p) : Double.toString(p), s.percentile(p) * k);
+            }
+        }
+        try {
+            return m.writeValueAsString(root) + System.lineSeparator();
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException("JSON of plain numbers cannot fail", e);
+        }
+    }
+
+    private static final double[] PERCENTILES = {0.1, 1, 5, 25, 50, 75, 95, 99, 99.9};
 
     private double checkRate(boolean control) {
         if (control) {
@@ -204,8 +284,9 @@ final class RenderCommand implements Callable<Integer> {
         while (done < frames) {
             int n = (int) Math.min(BLOCK_FRAMES, frames - done);
             chain.render(buf, n);
+            // The statistics are those of the file: the values after dither, rounding and clipping.
+            w.writeFrames(buf, n, buf);
             stats.accept(buf, 0, n * chain.channels());
-            w.writeFrames(buf, n);
             done += n;
             progress.update((double) done / frames);
         }
@@ -260,7 +341,7 @@ final class RenderCommand implements Callable<Integer> {
             String u = voltsPerFs == null ? " FS" : " V";
             out.println(Numbers.f("Statistics: mean %+.5f%s, RMS %.5f%s, peak %.5f%s", s.mean() * k, u, s.rms() * k, u, s.peak() * k, u));
             StringBuilder sb = new StringBuilder("Percentiles:");
-            for (double p : new double[] {0.1, 1, 5, 25, 50, 75, 95, 99, 99.9}) {
+            for (double p : PERCENTILES) {
                 sb.append(Numbers.f("  %s%%: %+.4f%s", p == (long) p ? Long.toString((long) p) : Double.toString(p), s.percentile(p) * k, u));
             }
             out.println(sb);

@@ -101,6 +101,21 @@ public final class Decimator {
         return d;
     }
 
+    /**
+     * Output samples after which the cascade's output no longer depends on its state before them:
+     * every stage's delay line (4·halfLength + 1 of its own input samples) expressed at the output rate,
+     * summed, rounded up; 0 for factor 1.
+     */
+    public int historyOutputSamples() {
+        double d = 0;
+        int inputPerOutput = factor;
+        for (HalfbandDecimator s : stages) {
+            d += (4.0 * s.halfLength() + 1) / inputPerOutput;
+            inputPerOutput /= 2;
+        }
+        return (int) Math.ceil(d);
+    }
+
     /** Product of the stage responses at hz (each at its own input rate); 1 for factor 1. */
     public Complex response(double hz) {
         Complex h = Complex.ONE;

@@ -137,6 +137,16 @@ public final class OversampledFilter {
             return factor;
         }
 
+        /**
+         * Sets the state of the sections (see {@link SosFilter#setState}); the decimator keeps its own.
+         * To start in steady state: set a draw from {@link StationaryState#of} the design's sections,
+         * then run and discard {@link Decimator#historyOutputSamples()} outputs of the same input, after which
+         * the decimator's history too is a stationary sample.
+         */
+        public void setSectionState(double[] state) {
+            filter.setState(state);
+        }
+
         /** Clears filter and decimator state. */
         public void reset() {
             filter.reset();

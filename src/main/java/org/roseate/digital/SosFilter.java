@@ -81,6 +81,21 @@ public final class SosFilter {
         run(buf, offset, n);
     }
 
+    /**
+     * Sets the state, e.g. a draw from {@link StationaryState}, in the order [s1₀, s2₀, s1₁, s2₁, …].
+     *
+     * @param state at least 2·sections values
+     */
+    public void setState(double[] state) {
+        if (state.length < 2 * n) {
+            throw new IllegalArgumentException("state has " + state.length + " values; need " + 2 * n);
+        }
+        for (int k = 0; k < n; k++) {
+            s1[k] = state[2 * k];
+            s2[k] = state[2 * k + 1];
+        }
+    }
+
     /** Clears all state, as after construction. */
     public void reset() {
         java.util.Arrays.fill(s1, 0);

@@ -171,6 +171,17 @@ public final class WavWriter {
      *                                  declared frame count
      */
     public void writeFrames(double[] interleaved, int frames) throws IOException {
+        writeFrames(interleaved, frames, null);
+    }
+
+    /**
+     * As {@link #writeFrames(double[], int)}, and also gives back what the file now holds: sample i of the
+     * call becomes {@code written[i]}, the stored code over full scale (after dither, rounding and
+     * clipping; NaN as 0) or the stored float. Lets a caller report the level of the file itself.
+     *
+     * @param written null, or an array at least frames × channels long (it may be {@code interleaved})
+     */
+    public void writeFrames(double[] interleaved, int frames, double[] written) throws IOException {
         if (finished) {
             throw new IllegalStateException("writeFrames after finish()");
         }
@@ -189,6 +200,9 @@ public final class WavWriter {
             int n = Math.min(framesPerBuffer, frames - done);
             int samples = n * channels;
             encode(interleaved, done * channels, samples);
+            if (written != null) {
+                decode(written, done * channels, samples);
+            }
             out.write(buffer, 0, samples * format.encoding().bytesPerSample());
             done += n;
         }
@@ -246,6 +260,45 @@ public final class WavWriter {
                     b[p++] = (byte) (q >>> 24);
                 }
             }
+        }
+    }
+
+    /** The values just encoded into {@code buffer}, back at full scale 1.0. */
+    private void decode(double[] dst, int from, int samples) {
+        byte[] b = buffer;
+        int p = 0;
+        for (int i = from; i < from + samples; i++) {
+            dst[i] = switch (format.encoding()) {
+                case FLOAT_32 -> {
+                    int bits = (b[p] & 0xff) | (b[p + 1] & 0xff) << 8 | (b[p + 2] & 0xff) << 16 | b[p + 3] << 24;
+                    p += 4;
+                    yield Float.intBitsToFloat(bits);
+                }
+                case FLOAT_64 -> {
+                    long bits = 0;
+                    for (int k = 0; k < 8; k++) {
+                        bits |= (b[p + k] & 0xffL) << (8 * k);
+                    }
+                    p += 8;
+                    yield Double.longBitsToDouble(bits);
+                }
+                case PCM_8 -> ((b[p++] & 0xff) - 128) / fullScale;
+                case PCM_16 -> {
+                    int q = (b[p] & 0xff) | b[p + 1] << 8;
+                    p += 2;
+                    yield q / fullScale;
+                }
+                case PCM_24 -> {
+                    int q = (b[p] & 0xff) | (b[p + 1] & 0xff) << 8 | b[p + 2] << 16;
+                    p += 3;
+                    yield q / fullScale;
+                }
+                case PCM_32 -> {
+                    int q = (b[p] & 0xff) | (b[p + 1] & 0xff) << 8 | (b[p + 2] & 0xff) << 16 | b[p + 3] << 24;
+                    p += 4;
+                    yield q / fullScale;
+                }
+            };
         }
     }
 

@@ -40,6 +40,10 @@ public record ChainSettings(double sampleRateHz, int channels, boolean identical
         return new ChainSettings(sampleRateHz, channels, identicalChannels, seed, newLevelDbfs, distribution, softLimiter);
     }
 
+    public ChainSettings withSeed(long newSeed) {
+        return new ChainSettings(sampleRateHz, channels, identicalChannels, newSeed, levelDbfs, distribution, softLimiter);
+    }
+
     public ChainSettings withDistribution(WhiteNoiseSource.Distribution d) {
         return new ChainSettings(sampleRateHz, channels, identicalChannels, seed, levelDbfs, d, softLimiter);
     }

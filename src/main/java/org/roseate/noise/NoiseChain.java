@@ -9,6 +9,7 @@ import org.roseate.digital.FidelityReport;
 import org.roseate.digital.OversampledFilter;
 import org.roseate.digital.Oversampling;
 import org.roseate.digital.PrewarpRule;
+import org.roseate.digital.StationaryState;
 import org.roseate.model.Zpk;
 
 /**
@@ -23,6 +24,10 @@ import org.roseate.model.Zpk;
  * |H_sections(f)·H_decimator(f)|² df (decimation keeps the variance of a stationary signal), and the
  * gain is 10^(L/20)/√(2·variance) (AES17). No trial renders.
  *
+ * <p><b>Steady-state start.</b> Each running filter starts in a state drawn from its stationary
+ * distribution ({@link StationaryState}), so a slow circuit (a 10 s time constant) is at its long-run
+ * expected level from the first sample instead of rising from rest.
+ *
  * <p>The chain design is immutable; each instance holds its own running state (noise generators,
  * filter states, buffers) and serves one thread. {@link #render} allocates nothing; memory is
  * constant whatever the duration.
@@ -36,6 +41,7 @@ public final class NoiseChain implements FrameSource {
     private final ChainSettings settings;
     private final Zpk analog;
     private final OversampledFilter filter;
+    private final StationaryState stationary;
     private final FidelityReport fidelity;
     private final double noisePowerGain;
     private final double gain;
@@ -52,6 +58,7 @@ public final class NoiseChain implements FrameSource {
         this.settings = s;
         this.analog = analog;
         this.filter = filter;
+        this.stationary = filter == null ? null : StationaryState.of(filter.sections());
         this.fidelity = fidelity;
         this.noisePowerGain = noisePowerGain;
         this.gain = LevelCalculator.gainForLevel(noisePowerGain, s.levelDbfs());
@@ -71,6 +78,38 @@ public final class NoiseChain implements FrameSource {
         white = new double[BLOCK * factor];
         out = new double[streams][BLOCK];
         limiter = s.softLimiter() ? new SoftLimiter() : null;
+        startStationary();
+    }
+
+    /** Stream index (for {@link WhiteNoiseSource#independent}) of the draws that set the starting state. */
+    private static final int STATE_STREAM = 1000;
+
+    /**
+     * Puts every running filter in its steady state: the sections' state drawn from their stationary
+     * covariance ({@link StationaryState}), then {@link org.roseate.digital.Decimator#historyOutputSamples()}
+     * outputs run and discarded so the decimator's history is a stationary sample too. The expected
+     * level is then the long-run level from the first sample. The draws come from their own seeded
+     * stream, so the output stays a function of the seed alone.
+     */
+    private void startStationary() {
+        if (filter == null) {
+            return;
+        }
+        WhiteNoiseSource draws = new WhiteNoiseSource(settings.seed()).independent(STATE_STREAM);
+        double[] state = new double[stationary.dimension()];
+        int factor = filter.factor();
+        int warm = filter.decimator().historyOutputSamples();
+        for (int s = 0; s < runtimes.length; s++) {
+            stationary.draw(draws::next, 1.0, state);
+            runtimes[s].setSectionState(state);
+            int done = 0;
+            while (done < warm) {
+                int n = Math.min(BLOCK, warm - done);
+                sources[s].fill(white, 0, n * factor);
+                runtimes[s].process(white, out[s], n);
+                done += n;
+            }
+        }
     }
 
     /**
@@ -108,6 +147,11 @@ public final class NoiseChain implements FrameSource {
     /** A new chain of the same design at another level, with fresh state (same seed). */
     public NoiseChain withLevel(double levelDbfs) {
         return new NoiseChain(settings.withLevel(levelDbfs), analog, filter, fidelity, noisePowerGain, describe);
+    }
+
+    /** A new chain of the same design with another seed, with fresh state. */
+    public NoiseChain withSeed(long seed) {
+        return new NoiseChain(settings.withSeed(seed), analog, filter, fidelity, noisePowerGain, describe);
     }
 
     /**
@@ -239,7 +283,7 @@ public final class NoiseChain implements FrameSource {
         }
     }
 
-    /** Restarts the noise and clears the filter state: the next render repeats the first. */
+    /** Restarts the noise and the steady-state start: the next render repeats the first. */
     public void reset() {
         WhiteNoiseSource root = new WhiteNoiseSource(settings.seed(), settings.distribution());
         sources[0] = root;
@@ -251,5 +295,6 @@ public final class NoiseChain implements FrameSource {
                 r.reset();
             }
         }
+        startStationary();
     }
 }

@@ -140,4 +140,102 @@ class RenderCommandTest {
             assertFalse(Files.exists(Path.of(w)), "nothing written for " + String.join(" ", c));
         }
     }
+
+    /** Issue 15: a duration shorter than one output sample is refused, and nothing is written. */
+    @Test
+    void durationShorterThanOneSampleIsRefused() {
+        Path out = dir.resolve("short.wav");
+        var r = AnalyzeCommandTest.run("render", "--source", "white", "-o", out.toString(), "--seconds", "0.00001");
+        assertEquals(2, r.status());
+        assertTrue(r.err().startsWith("roseate: --seconds: 1.0E-5 s is shorter than one sample at 48000 Hz"), r.err());
+        assertEquals("", r.out());
+        assertFalse(Files.exists(out));
+    }
+
+    /** Issue 15: --rate and --control-rate together are refused, naming both. */
+    @Test
+    void rateWithControlRateIsRefused() {
+        Path out = dir.resolve("cv.csv");
+        var r = AnalyzeCommandTest.run("render", "--source", "white", "-o", out.toString(), "--control-rate", "100", "--rate", "48000");
+        assertEquals(2, r.status());
+        assertTrue(r.err().startsWith("roseate: --rate and --control-rate both given"), r.err());
+        assertEquals(1, r.err().strip().lines().count(), "one line");
+        assertFalse(Files.exists(out));
+    }
+
+    /** Issue 15: --volts-per-fs means something only at control rates; at audio rates it is refused. */
+    @Test
+    void voltsPerFullScaleWithoutControlRateIsRefused() {
+        Path out = dir.resolve("a.wav");
+        var r = AnalyzeCommandTest.run("render", "--source", "white", "-o", out.toString(), "--volts-per-fs", "5");
+        assertEquals(2, r.status());
+        assertTrue(r.err().startsWith("roseate: --volts-per-fs has no meaning without --control-rate"), r.err());
+        assertFalse(Files.exists(out));
+    }
+
+    /** Issue 15: an existing output is refused before any work: nothing printed, the file untouched. */
+    @Test
+    void existingOutputIsRefusedBeforeAnyPrinting() throws Exception {
+        Path out = dir.resolve("keep.wav");
+        Files.writeString(out, "precious");
+        var r = AnalyzeCommandTest.run("render", "presets/bench-pink.json", "-o", out.toString(), "--seconds", "60");
+        assertEquals(2, r.status());
+        assertEquals("", r.out(), "no fidelity table or anything else before the refusal");
+        assertEquals("roseate: " + out + " already exists; add --force to replace it", r.err().strip());
+        assertEquals("precious", Files.readString(out));
+    }
+
+    /**
+     * Issue 12: the figures are those of the file written. 16-bit white noise requested at −120 dBFS is
+     * below one LSB, so the file holds mostly TPDF dither and rounding: total error variance 1/4 LSB²
+     * (Lipshitz, Wannamaker and Vanderkooy, J. Audio Eng. Soc. 40(5), 1992, from memory), i.e.
+     * 20·log10(√2 · 0.5/32768) = −93.3 dBFS. The JSON figures are checked against the file as read by
+     * javax.sound.sampled (a reader outside the project), to 1e-9 dB (double rounding only).
+     */
+    @Test
+    void jsonFiguresAreThoseOfTheWrittenFile() throws Exception {
+        Path out = dir.resolve("quiet.wav");
+        var r = AnalyzeCommandTest.run("render", "--source", "white", "-o", out.toString(), "--seconds", "2",
+                "--bits", "16", "--level", "-120", "--format", "json");
+        assertEquals(0, r.status(), r.err());
+        var j = new com.fasterxml.jackson.databind.ObjectMapper().readTree(r.out());
+        double sumSq = 0;
+        double peak = 0;
+        long n = 0;
+        try (var in = AudioSystem.getAudioInputStream(out.toFile())) {
+            byte[] b = in.readAllBytes();
+            for (int i = 0; i + 1 < b.length; i += 2) {
+                double v = (short) ((b[i] & 0xff) | (b[i + 1] << 8)) / 32768.0;
+                sumSq += v * v;
+                peak = Math.max(peak, Math.abs(v));
+                n++;
+            }
+        }
+        double levelDbfs = 10 * Math.log10(2 * sumSq / n);
+        double peakDbfs = 20 * Math.log10(peak);
+        assertEquals(levelDbfs, j.get("levelDbfs").asDouble(), 1e-9);
+        assertEquals(peakDbfs, j.get("peakDbfs").asDouble(), 1e-9);
+        assertEquals(peakDbfs - (levelDbfs - 10 * Math.log10(2)), j.get("crestFactorDb").asDouble(), 1e-9, "crest factor = peak / RMS");
+        assertEquals(0, j.get("clippedSamples").asLong());
+        assertEquals(-93.3, levelDbfs, 0.1, "dither and rounding of a sub-LSB signal (the file, not the request)");
+        assertEquals(-120, j.get("requestedLevelDbfs").asDouble());
+        assertTrue(j.get("fidelity").isArray());
+    }
+
+    /** JSON of a design render carries one fidelity entry per third-octave band, 20 Hz to 20 kHz (31 bands, IEC 61260-1). */
+    @Test
+    void jsonCarriesFidelityPerBand() throws Exception {
+        Path out = dir.resolve("p.wav");
+        var r = AnalyzeCommandTest.run("render", "presets/bench-pink.json", "-o", out.toString(), "--seconds", "0.5",
+                "--format", "json");
+        assertEquals(0, r.status(), r.err());
+        var j = new com.fasterxml.jackson.databind.ObjectMapper().readTree(r.out());
+        assertEquals(31, j.get("fidelity").size());
+        for (var b : j.get("fidelity")) {
+            assertTrue(b.get("withinTolerance").asBoolean(), b.toString());
+        }
+        for (String key : new String[] {"levelDbfs", "peakDbfs", "crestFactorDb", "clippedSamples"}) {
+            assertTrue(j.get(key).isNumber(), key);
+        }
+    }
 }

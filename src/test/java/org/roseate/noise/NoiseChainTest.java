@@ -229,4 +229,40 @@ class NoiseChainTest {
         st.accept(buf, 0, buf.length);
         assertEquals(-12, st.rmsDbfs(), 4 * sigmaDb, "σ = " + sigmaDb + " dB");
     }
+
+    /**
+     * Steady-state start: a one-pole low-pass with a 10 s time constant (pole at −0.1 rad/s, unity DC
+     * gain) rendered at 100 Hz for 1 s from 4000 seeds. Started from rest, the mean power of such renders
+     * would be about 10 dB under the request (E[y²](t) ∝ 1 − e^(−2t/τ), averaged over t ≤ 1 s with
+     * τ = 10 s: 0.094); started in the stationary state it is the requested power from the first sample.
+     * The reference is the definition of the level (AES17: −20 dBFS RMS is a mean power of 10^(−2)/2 in
+     * full-scale units); the bound is 5 standard errors of the mean, the standard error taken from the
+     * spread of the 4000 per-render powers themselves.
+     */
+    @Test
+    void slowCircuitStartsAtItsLongRunLevel() {
+        Zpk tenSeconds = new Zpk(List.of(), List.of(new org.roseate.model.Complex(-0.1, 0)), 0.1);
+        NoiseChain base = NoiseChain.design(tenSeconds, new ChainSettings(100, 1, false, 1, -20));
+        int renders = 4000;
+        int frames = 100;
+        double[] buf = new double[frames];
+        double sum = 0;
+        double sumSq = 0;
+        for (int seed = 1; seed <= renders; seed++) {
+            NoiseChain c = base.withSeed(seed);
+            c.render(buf, frames);
+            double p = 0;
+            for (double v : buf) {
+                p += v * v;
+            }
+            p /= frames;
+            sum += p;
+            sumSq += p * p;
+        }
+        double mean = sum / renders;
+        double sd = Math.sqrt((sumSq / renders - mean * mean) / (renders - 1));
+        double expected = Math.pow(10, -20 / 10.0) / 2;
+        assertEquals(expected, mean, 5 * sd, "mean power " + mean + " ± " + sd + " (" + 10 * Math.log10(2 * mean) + " dBFS)");
+        assertTrue(5 * sd < 0.25 * expected, "the bound must be tight enough to tell rest (−10 dB) from steady state");
+    }
 }
