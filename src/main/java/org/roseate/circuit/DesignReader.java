@@ -127,10 +127,10 @@ public final class DesignReader {
         }
         JsonNode kindNode = node.get("kind");
         if (kindNode == null) {
-            throw fail(at + ": missing key 'kind' (inverting, noninverting or divider)");
+            throw fail(at + ": missing key 'kind' (inverting, noninverting, divider or circuit)");
         }
         if (!kindNode.isTextual()) {
-            throw fail(at + ": 'kind' must be a string (inverting, noninverting or divider), found " + describe(kindNode));
+            throw fail(at + ": 'kind' must be a string (inverting, noninverting, divider or circuit), found " + describe(kindNode));
         }
         String kind = kindNode.asText();
         switch (kind) {
@@ -149,18 +149,26 @@ public final class DesignReader {
                 Optional<Network> load = node.has("load") ? Optional.of(network(node, "load", number)) : Optional.empty();
                 return new DividerStage(network(node, "series", number), network(node, "shunt", number), load);
             }
-            default -> throw fail(at + ": unknown kind '" + kind + "'; expected inverting, noninverting or divider");
+            case CircuitStage.KIND -> {
+                return circuit(node, number);
+            }
+            default -> throw fail(at + ": unknown kind '" + kind + "'; expected inverting, noninverting, divider or circuit");
         }
     }
 
     private Network network(JsonNode stage, String role, int number) {
         JsonNode n = stage.get(role);
-        String at = "stage " + number + " " + role;
         if (n == null) {
             throw fail("stage " + number + " (" + stage.get("kind").asText() + "): missing key '" + role + "'");
         }
+        return network(n, "stage " + number + " " + role, number, role);
+    }
+
+    /** Parses a network expression; {@code role} is the key path the editor marks. */
+    private Network network(JsonNode n, String at, int number, String role) {
         if (!n.isTextual()) {
-            throw fail(at + ": expected a network such as \"R1(10k) || C1(22n)\", found " + describe(n));
+            throw new DesignException(source + ": " + at + ": expected a network such as \"R1(10k) || C1(22n)\", found "
+                    + describe(n), number, role, 0);
         }
         try {
             return NetworkParser.parse(n.asText());
@@ -168,6 +176,131 @@ public final class DesignReader {
             throw new DesignException(source + ": " + at + ", column " + e.column() + ": " + e.detail(),
                     number, role, e.column());
         }
+    }
+
+    /**
+     * A {@code circuit} stage. Keys: {@code input}, {@code output} (node names), {@code branches}
+     * ("n1 n2" → network), {@code opamps} (designator → {@code plus}, {@code minus},
+     * {@code output} and the op-amp model keys). Errors name the stage and the key path, e.g.
+     * {@code stage 2 (circuit) opamps U1 plus: unknown node 'x'; …}; the exception's role is the
+     * key path joined by {@link #PATH_SEPARATOR} for the editor.
+     */
+    private Stage circuit(JsonNode node, int number) {
+        String at = "stage " + number + " (circuit)";
+        checkKeys(node, Set.of("kind", "input", "output", "branches", "opamps"), at);
+        String input = nodeName(node, "input", at, number);
+        String output = nodeName(node, "output", at, number);
+        JsonNode br = node.get("branches");
+        if (br == null) {
+            throw stageFail(at + ": missing key 'branches' (an object such as {\"in out\": \"R1(10k)\", \"out gnd\": \"C1(10n)\"})", number, null);
+        }
+        if (!br.isObject()) {
+            throw stageFail(at + " branches: expected an object such as {\"in out\": \"R1(10k)\"}, found " + describe(br), number, "branches");
+        }
+        Map<String, Network> branches = new LinkedHashMap<>();
+        Iterator<Map.Entry<String, JsonNode>> it = br.fields();
+        while (it.hasNext()) {
+            Map.Entry<String, JsonNode> e = it.next();
+            String key = e.getKey();
+            String role = "branches" + PATH_SEPARATOR + key;
+            if (CircuitStage.nodesOf(key).isEmpty()) {
+                throw stageFail(at + " branches '" + key + "': a branch key must be two node names (letters, digits, _) "
+                        + "separated by one space, such as \"in a\"", number, role);
+            }
+            branches.put(key, network(e.getValue(), "stage " + number + " branch '" + key + "'", number, role));
+        }
+        Map<String, CircuitOpAmp> opamps = new LinkedHashMap<>();
+        JsonNode ops = node.get("opamps");
+        if (ops != null) {
+            if (!ops.isObject()) {
+                throw stageFail(at + " opamps: expected an object keyed by designator, such as "
+                        + "{\"U1\": {\"plus\": \"a\", \"minus\": \"out\", \"output\": \"out\"}}, found " + describe(ops), number, "opamps");
+            }
+            Iterator<Map.Entry<String, JsonNode>> oi = ops.fields();
+            while (oi.hasNext()) {
+                Map.Entry<String, JsonNode> e = oi.next();
+                opamps.put(e.getKey(), circuitOpAmp(e.getKey(), e.getValue(), at, number));
+            }
+        }
+        Optional<CircuitStage.Problem> p = CircuitStage.problem(input, output, branches, opamps);
+        if (p.isPresent()) {
+            String key = p.get().key();
+            String role = key.startsWith("branches '")
+                    ? "branches" + PATH_SEPARATOR + key.substring("branches '".length(), key.length() - 1)
+                    : key.replace(" ", PATH_SEPARATOR);
+            throw stageFail(at + " " + key + ": " + p.get().message(), number, role);
+        }
+        return new CircuitStage(input, output, branches, opamps);
+    }
+
+    /** Separator of the key path in a circuit error's role, e.g. {@code opamps/U1/plus}. */
+    public static final String PATH_SEPARATOR = "/";
+
+    private static final java.util.regex.Pattern DESIGNATOR = java.util.regex.Pattern.compile("[A-Za-z][A-Za-z0-9_]*");
+
+    private CircuitOpAmp circuitOpAmp(String designator, JsonNode n, String stageAt, int number) {
+        String at = stageAt + " opamps " + designator;
+        String role = "opamps" + PATH_SEPARATOR + designator;
+        if (!DESIGNATOR.matcher(designator).matches()) {
+            throw stageFail(at + ": expected a designator such as U1 (a letter, then letters, digits or _)", number, role);
+        }
+        if (!n.isObject()) {
+            throw stageFail(at + ": expected an object such as {\"plus\": \"a\", \"minus\": \"out\", \"output\": \"out\"}, found "
+                    + describe(n), number, role);
+        }
+        checkKeys(n, Set.of("plus", "minus", "output", "gbwHz", "openLoopGain"), at);
+        String[] pins = new String[3];
+        String[] names = {"plus", "minus", "output"};
+        for (int i = 0; i < 3; i++) {
+            JsonNode v = n.get(names[i]);
+            if (v == null) {
+                throw stageFail(at + ": missing key '" + names[i] + "' (a node name)", number, role);
+            }
+            if (!v.isTextual() || !CircuitStage.isNodeName(v.asText())) {
+                throw stageFail(at + " " + names[i] + ": expected a node name (letters, digits, _), found " + describe(v),
+                        number, role + PATH_SEPARATOR + names[i]);
+            }
+            pins[i] = v.asText();
+        }
+        return new CircuitOpAmp(pins[0], pins[1], pins[2], opAmpModel(n, at, number, role, true));
+    }
+
+    /**
+     * The op-amp model keys of an op-amp object ({@code gbwHz}, {@code openLoopGain}); with
+     * {@code idealWithoutGbw}, a missing {@code gbwHz} means the ideal op-amp. New model keys are
+     * read here.
+     */
+    private OpAmp opAmpModel(JsonNode n, String at, int number, String role, boolean idealWithoutGbw) {
+        JsonNode gbw = n.get("gbwHz");
+        JsonNode a0 = n.get("openLoopGain");
+        if (gbw == null) {
+            if (!idealWithoutGbw) {
+                throw fail(at + ": missing key 'gbwHz' (gain-bandwidth product in Hz, e.g. 1e6)");
+            }
+            if (a0 != null) {
+                throw stageFail(at + " openLoopGain: needs gbwHz as well (without gbwHz the op-amp is ideal)", number,
+                        role + PATH_SEPARATOR + "openLoopGain");
+            }
+            return OpAmp.IDEAL;
+        }
+        double gbwHz = positiveNumber(gbw, at + " gbwHz");
+        double gain = a0 == null ? OpAmp.DEFAULT_OPEN_LOOP_GAIN : positiveNumber(a0, at + " openLoopGain");
+        return new OpAmp(gbwHz, gain);
+    }
+
+    private String nodeName(JsonNode stage, String key, String at, int number) {
+        JsonNode v = stage.get(key);
+        if (v == null) {
+            throw stageFail(at + ": missing key '" + key + "' (a node name such as \"" + ("input".equals(key) ? "in" : "out") + "\")", number, null);
+        }
+        if (!v.isTextual() || !CircuitStage.isNodeName(v.asText())) {
+            throw stageFail(at + " " + key + ": expected a node name (letters, digits, _), found " + describe(v), number, key);
+        }
+        return v.asText();
+    }
+
+    private DesignException stageFail(String message, int number, String role) {
+        return new DesignException(source + ": " + message, number, role, 0);
     }
 
     private Optional<OpAmp> opamp(JsonNode n, int number) {
@@ -179,14 +312,7 @@ public final class DesignReader {
             throw fail(at + ": expected an object such as {\"gbwHz\": 1e6, \"openLoopGain\": 1e5}, found " + describe(n));
         }
         checkKeys(n, Set.of("gbwHz", "openLoopGain"), at);
-        JsonNode gbw = n.get("gbwHz");
-        if (gbw == null) {
-            throw fail(at + ": missing key 'gbwHz' (gain-bandwidth product in Hz, e.g. 1e6)");
-        }
-        double gbwHz = positiveNumber(gbw, at + " gbwHz");
-        JsonNode a0 = n.get("openLoopGain");
-        double gain = a0 == null ? OpAmp.DEFAULT_OPEN_LOOP_GAIN : positiveNumber(a0, at + " openLoopGain");
-        return Optional.of(new OpAmp(gbwHz, gain));
+        return Optional.of(opAmpModel(n, at, number, "opamp", false));
     }
 
     private double positiveNumber(JsonNode n, String at) {
@@ -233,16 +359,26 @@ public final class DesignReader {
     private void checkDuplicateDesignators(List<Stage> stages) {
         Map<String, String> firstSeen = new LinkedHashMap<>();
         for (int i = 0; i < stages.size(); i++) {
-            for (Map.Entry<String, Network> e : stages.get(i).networks().entrySet()) {
-                String where = "stage " + (i + 1) + " " + e.getKey();
+            Stage st = stages.get(i);
+            for (Map.Entry<String, Network> e : st.networks().entrySet()) {
+                String where = "stage " + (i + 1) + (st instanceof CircuitStage ? " branch '" + e.getKey() + "'" : " " + e.getKey());
                 for (Component c : e.getValue().components()) {
-                    String before = firstSeen.putIfAbsent(c.designator(), where);
-                    if (before != null) {
-                        throw fail("designator " + c.designator() + " is used twice (" + before + " and " + where
-                                + "); each part needs its own designator");
-                    }
+                    seen(firstSeen, c.designator(), where);
                 }
             }
+            if (st instanceof CircuitStage c) {
+                for (String u : c.opamps().keySet()) {
+                    seen(firstSeen, u, "stage " + (i + 1) + " opamps");
+                }
+            }
+        }
+    }
+
+    private void seen(Map<String, String> firstSeen, String designator, String where) {
+        String before = firstSeen.putIfAbsent(designator, where);
+        if (before != null) {
+            throw fail("designator " + designator + " is used twice (" + before + " and " + where
+                    + "); each part needs its own designator");
         }
     }
 

@@ -32,17 +32,38 @@ public final class DesignWriter {
         for (Stage s : design.stages()) {
             ObjectNode st = stages.addObject();
             st.put("kind", s.kind());
+            if (s instanceof CircuitStage c) {
+                st.put("input", c.input());
+                st.put("output", c.output());
+                ObjectNode br = st.putObject("branches");
+                c.branches().forEach((key, net) -> br.put(key, net.toExpression()));
+                if (!c.opamps().isEmpty()) {
+                    ObjectNode ops = st.putObject("opamps");
+                    c.opamps().forEach((u, op) -> {
+                        ObjectNode o = ops.putObject(u);
+                        o.put("plus", op.plus());
+                        o.put("minus", op.minus());
+                        o.put("output", op.output());
+                        model(op.model(), o);
+                    });
+                }
+                continue;
+            }
             s.networks().forEach((role, net) -> st.put(role, net.toExpression()));
-            s.opamp().ifPresent(op -> {
-                ObjectNode o = st.putObject("opamp");
-                o.put("gbwHz", op.gbwHz());
-                o.put("openLoopGain", op.openLoopGain());
-            });
+            s.opamp().ifPresent(op -> model(op, st.putObject("opamp")));
         }
         try {
             return JSON.writeValueAsString(root) + System.lineSeparator();
         } catch (JsonProcessingException e) {
             throw new IllegalStateException("cannot serialise design " + design.name(), e);
+        }
+    }
+
+    /** The op-amp model keys; the ideal op-amp has none. New model keys are written here. */
+    private static void model(OpAmp op, ObjectNode o) {
+        if (!op.isIdeal()) {
+            o.put("gbwHz", op.gbwHz());
+            o.put("openLoopGain", op.openLoopGain());
         }
     }
 }

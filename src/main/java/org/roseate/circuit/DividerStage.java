@@ -1,6 +1,8 @@
 package org.roseate.circuit;
 
 import java.util.Map;
+import java.util.List;
+import java.util.LinkedHashMap;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.function.UnaryOperator;
@@ -36,5 +38,14 @@ public record DividerStage(Network series, Network shunt, Optional<Network> load
     @Override
     public Stage mapNetworks(UnaryOperator<Network> f) {
         return new DividerStage(f.apply(series), f.apply(shunt), load.map(f));
+    }
+
+    /** Series from in to out, shunt (in parallel with the load, if any) from out to gnd. */
+    @Override
+    public CircuitStage asCircuit() {
+        Map<String, Network> b = new LinkedHashMap<>();
+        b.put("in out", series);
+        b.put("out gnd", load.<Network>map(l -> new Parallel(List.of(shunt, l))).orElse(shunt));
+        return new CircuitStage("in", "out", b, Map.of());
     }
 }

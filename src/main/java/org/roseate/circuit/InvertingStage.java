@@ -1,6 +1,7 @@
 package org.roseate.circuit;
 
 import java.util.Map;
+import java.util.LinkedHashMap;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.function.UnaryOperator;
@@ -31,5 +32,15 @@ public record InvertingStage(Network input, Network feedback, Optional<OpAmp> op
     @Override
     public Stage mapNetworks(UnaryOperator<Network> f) {
         return new InvertingStage(f.apply(input), f.apply(feedback), opamp);
+    }
+
+    /** Nodes in → input → m → feedback → out; U1 with plus at gnd, minus at m, output at out. */
+    @Override
+    public CircuitStage asCircuit() {
+        Map<String, Network> b = new LinkedHashMap<>();
+        b.put("in m", input);
+        b.put("m out", feedback);
+        return new CircuitStage("in", "out", b,
+                Map.of("U1", new CircuitOpAmp(CircuitStage.GROUND, "m", "out", opamp.orElse(OpAmp.IDEAL))));
     }
 }

@@ -1,6 +1,7 @@
 package org.roseate.circuit;
 
 import java.util.Map;
+import java.util.LinkedHashMap;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.function.UnaryOperator;
@@ -31,5 +32,15 @@ public record NonInvertingStage(Network ground, Network feedback, Optional<OpAmp
     @Override
     public Stage mapNetworks(UnaryOperator<Network> f) {
         return new NonInvertingStage(f.apply(ground), f.apply(feedback), opamp);
+    }
+
+    /** Ground network from m to gnd, feedback from m to out; U1 with plus at in, minus at m. */
+    @Override
+    public CircuitStage asCircuit() {
+        Map<String, Network> b = new LinkedHashMap<>();
+        b.put("m gnd", ground);
+        b.put("m out", feedback);
+        return new CircuitStage("in", "out", b,
+                Map.of("U1", new CircuitOpAmp("in", "m", "out", opamp.orElse(OpAmp.IDEAL))));
     }
 }

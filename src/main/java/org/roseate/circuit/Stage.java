@@ -9,9 +9,9 @@ import java.util.function.UnaryOperator;
  * One stage of a design's cascade. Each kind names its networks by role (the keys of the design
  * file) and has a transfer function H(s) built from their impedances.
  */
-public sealed interface Stage permits InvertingStage, NonInvertingStage, DividerStage {
+public sealed interface Stage permits InvertingStage, NonInvertingStage, DividerStage, CircuitStage {
 
-    /** The kind as written in design files: {@code inverting}, {@code noninverting}, {@code divider}. */
+    /** The kind as written in design files: {@code inverting}, {@code noninverting}, {@code divider}, {@code circuit}. */
     String kind();
 
     /** The networks by role, in file order; optional roles that are absent are left out. */
@@ -22,6 +22,12 @@ public sealed interface Stage permits InvertingStage, NonInvertingStage, Divider
 
     /** A copy of this stage with each network replaced by {@code f(network)}. */
     Stage mapNetworks(UnaryOperator<Network> f);
+
+    /**
+     * The same stage written as a {@link CircuitStage} (nodes {@code in}, {@code m}, {@code out};
+     * its op-amp {@code U1}), with the same transfer function.
+     */
+    CircuitStage asCircuit();
 
     static Map<String, Network> roles(Object... roleThenNetwork) {
         Map<String, Network> m = new LinkedHashMap<>();

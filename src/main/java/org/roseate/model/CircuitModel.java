@@ -66,12 +66,16 @@ public final class CircuitModel {
     public void response(double[] hz, double[] re, double[] im) {
         double[][] scratch = {new double[scratchDepth], new double[scratchDepth], new double[2], new double[2]};
         double[] h = new double[2];
+        NodalModel.Workspace[] nodal = new NodalModel.Workspace[stages.size()];
+        for (int k = 0; k < nodal.length; k++) {
+            nodal[k] = stages.get(k).nodalWorkspace();
+        }
         for (int i = 0; i < hz.length; i++) {
             double w = 2 * Math.PI * hz[i];
             double accR = 1;
             double accI = 0;
-            for (StageModel s : stages) {
-                s.evaluate(w, scratch, h);
+            for (int k = 0; k < nodal.length; k++) {
+                stages.get(k).evaluate(w, scratch, nodal[k], h);
                 double t = accR * h[0] - accI * h[1];
                 accI = accR * h[1] + accI * h[0];
                 accR = t;

@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import org.roseate.circuit.CircuitStage;
 import org.roseate.circuit.DesignException;
 import org.roseate.circuit.DividerStage;
 import org.roseate.circuit.InvertingStage;
@@ -23,7 +24,7 @@ import org.roseate.circuit.Stage;
  * load in parallel with the shunt. Immutable and thread-safe.
  */
 public final class StageModel {
-    private enum Kind { INVERTING, NONINVERTING, DIVIDER }
+    private enum Kind { INVERTING, NONINVERTING, DIVIDER, CIRCUIT }
 
     private final Stage stage;
     private final Kind kind;
@@ -33,9 +34,22 @@ public final class StageModel {
     private final double openLoopGain;
     private final RationalFunction rational;
     private final Zpk zpk;
+    private final NodalModel nodal;
 
     StageModel(Stage stage, int number, double omegaScaleRadPerS, String source) {
         this.stage = stage;
+        if (stage instanceof CircuitStage c) {
+            kind = Kind.CIRCUIT;
+            nodal = new NodalModel(c, number, source, omegaScaleRadPerS);
+            a = null;
+            b = null;
+            tauSeconds = 0;
+            openLoopGain = Double.POSITIVE_INFINITY;
+            rational = nodal.rational();
+            zpk = buildZpk(rational);
+            return;
+        }
+        nodal = null;
         Network first;
         Network second;
         if (stage instanceof InvertingStage s) {
@@ -168,7 +182,17 @@ public final class StageModel {
     }
 
     int scratchDepth() {
-        return Math.max(a.stackDepth(), b.stackDepth());
+        return kind == Kind.CIRCUIT ? 1 : Math.max(a.stackDepth(), b.stackDepth());
+    }
+
+    /** The nodal model of a circuit stage (present only for kind {@code circuit}). */
+    public java.util.Optional<NodalModel> nodal() {
+        return java.util.Optional.ofNullable(nodal);
+    }
+
+    /** Per-call buffers of this stage: null unless it is a circuit stage. */
+    NodalModel.Workspace nodalWorkspace() {
+        return nodal == null ? null : nodal.workspace();
     }
 
     /**
@@ -177,8 +201,15 @@ public final class StageModel {
      * @param omegaRadPerS &gt; 0
      * @param scratch      four arrays: re/im stacks of length ≥ {@link #scratchDepth()}, then two
      *                     of length ≥ 2
+     * @param nodalScratch {@link #nodalWorkspace()} of this stage
      */
-    void evaluate(double omegaRadPerS, double[][] scratch, double[] out) {
+    void evaluate(double omegaRadPerS, double[][] scratch, NodalModel.Workspace nodalScratch, double[] out) {
+        if (kind == Kind.CIRCUIT) {
+            nodal.solveAt(omegaRadPerS, nodalScratch);
+            out[0] = nodal.solver().outputRe(nodalScratch.nodal());
+            out[1] = nodal.solver().outputIm(nodalScratch.nodal());
+            return;
+        }
         double[] za = scratch[2];
         double[] zb = scratch[3];
         a.evaluate(omegaRadPerS, scratch[0], scratch[1], za);
