@@ -9,7 +9,7 @@ package org.roseate.measure;
  * @param rmsDbfs        the overall RMS level, DC included, 20·log10(√2·rms) dBFS (AES17: a
  *                       full-scale sine reads 0 dBFS); −∞ for all-zero input
  * @param peakFs         the largest |sample|, full-scale units
- * @param clippedSamples samples at or within one code of full scale, plus samples in flat runs at
+ * @param clippedSamples samples at or within one code of full scale, plus samples held at
  *                       the channel's own peak (see {@link SignalCheck})
  */
 public record ChannelIntegrity(int channel, long frames, double dcOffsetFs, double rmsDbfs, double peakFs,

@@ -182,7 +182,7 @@ class MeasureCommandTest {
         Run csv = run("measure", dev.toString(), "--transfer", "--reference-channel", "2", "--range", "100-10000",
                 "--format", "csv");
         assertEquals(0, csv.status(), csv.err());
-        assertTrue(csv.out().startsWith("hz,db,deg,coherence,trusted,targetDb,modelDb\n"));
+        assertTrue(csv.out().startsWith("hz,db,uncertaintyDb,deg,uncertaintyDeg,coherence,trusted,targetDb,modelDb\r\n"), csv.out());
         Run t = run("measure", dev.toString(), "--transfer", "--reference-channel", "2", "--range", "100-10000",
                 "--against", "presets/bench-pink.json");
         assertEquals(0, t.status(), t.err());
@@ -203,10 +203,13 @@ class MeasureCommandTest {
         JsonNode j = new ObjectMapper().readTree(r.out());
         double sum = 0;
         for (JsonNode b : j.get("bands")) {
-            sum += b.get("designDifferenceDb").asDouble();
+            assertTrue(b.get("counted").asBoolean(), "white noise: every band counts");
+            double u = b.get("uncertaintyDb").asDouble();
+            sum += b.get("designDifferenceDb").asDouble() / (u * u);
         }
-        // shape comparison: the mean difference is removed, so the differences sum to zero (rounding only)
-        assertEquals(0.0, sum, 1e-9);
+        // shape comparison: the inverse-variance weighted mean difference is removed, so the weighted
+        // differences sum to zero (Σ wᵢ(dᵢ − m) = 0 by the definition of the weighted mean; rounding only)
+        assertEquals(0.0, sum, 1e-6);
         assertTrue(j.get("designOffsetDb").isNumber());
     }
 
@@ -233,12 +236,14 @@ class MeasureCommandTest {
             {new String[] {"measure", text.toString()}, text + ": not a WAV file"},
             {new String[] {"measure", empty.toString()}, empty + ": empty file"},
             {new String[] {"measure", adpcm.toString()}, adpcm + ": unsupported encoding"},
-            {new String[] {"measure", good.toString(), "--channel", "3"}, good + ": --channel 3 is out of range; the file has 2 channels"},
-            {new String[] {"measure", good.toString(), "--transfer", "--reference-channel", "0"}, good + ": --reference-channel 0 is out of range"},
+            {new String[] {"measure", good.toString(), "--channel", "3"}, good + ": channel 3 is out of range; the source has 2 channels"},
+            {new String[] {"measure", good.toString(), "--transfer", "--reference-channel", "0"}, "--reference-channel 0: channels count from 1"},
+            {new String[] {"measure", good.toString(), "--transfer", "--reference-channel", "3"}, good + ": reference channel 3 is out of range; the source has 2 channels"},
+            {new String[] {"measure", good.toString(), "--transfer", "--bank"}, "--bank reads noise-source band levels; leave out --transfer"},
             {new String[] {"measure", dir.resolve("nope.wav").toString()}, dir.resolve("nope.wav") + ": no such file"},
             {new String[] {"measure", shortFile.toString()}, shortFile + ": the capture is 0.02 s (1000 frames), shorter than one analysis segment of 131072 frames"},
             {new String[] {"measure", good.toString(), "--save-calibration", "c.json"}, "--save-calibration needs --transfer"},
-            {new String[] {"measure", good.toString(), "--segment", "1001"}, "--segment: expected an even number"},
+            {new String[] {"measure", good.toString(), "--segment", "1001"}, "segment length: expected an even number"},
             {new String[] {"measure", good.toString(), "--calibration", text.toString()}, text + ": invalid JSON"},
         };
         for (Object[] c : cases) {
@@ -251,6 +256,6 @@ class MeasureCommandTest {
         }
         Run mono = run("measure", shortFile.toString(), "--transfer", "--segment", "256");
         assertEquals(2, mono.status());
-        assertEquals("roseate: " + shortFile + ": --transfer needs two channels; the file has 1\n", mono.err());
+        assertEquals("roseate: " + shortFile + ": a transfer measurement needs two channels (reference and response); the source has 1\n", mono.err());
     }
 }
