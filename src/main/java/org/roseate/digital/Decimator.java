@@ -31,11 +31,29 @@ public final class Decimator {
     }
 
     /**
-     * The audio passband edge for an output rate: 20 kHz, scaled down in proportion below 44.1 kHz
-     * (edge = min(20000, outputRateHz·20000/44100)) so it always stays below Nyquist with a transition band.
+     * Upper edge of the third-octave band with nominal midband 20 kHz, in Hz: 10^4.3 · 10^(1/20)
+     * (base-10 band edges, IEC 61260-1), 22 387.2 Hz.
+     */
+    public static final double TOP_BAND_HIGH_HZ = Math.pow(10, 4.3 + 0.05);
+    /**
+     * At audio rates the passband reaches at most this fraction of the output rate, leaving the
+     * half-band filter a transition band of (1 − 2·0.476)·fs to Nyquist and beyond: 2.1 kHz at 44.1 kHz.
+     */
+    public static final double AUDIO_EDGE_FRACTION_OF_RATE = 0.476;
+
+    /**
+     * The audio passband edge for an output rate.
+     *
+     * <p>From 44.1 kHz up: min(TOP_BAND_HIGH_HZ, 0.476·fs), so at 48 kHz and above the whole 20 kHz
+     * third-octave band (to 22 387 Hz) is passed, and at 44.1 kHz the band is passed to 20 992 Hz (its
+     * part above 22 050 Hz cannot exist in a 44.1 kHz stream at all). Below 44.1 kHz (control rates) the
+     * edge is 20 kHz scaled in proportion, outputRateHz·20000/44100.
      */
     public static double audioPassbandEdgeHz(double outputRateHz) {
-        return Math.min(AUDIO_EDGE_HZ, outputRateHz * AUDIO_EDGE_HZ / 44_100);
+        if (outputRateHz >= 44_100) {
+            return Math.min(TOP_BAND_HIGH_HZ, AUDIO_EDGE_FRACTION_OF_RATE * outputRateHz);
+        }
+        return outputRateHz * AUDIO_EDGE_HZ / 44_100;
     }
 
     /** {@link #design(int, double, double)} with {@link #audioPassbandEdgeHz(double)}. */

@@ -171,7 +171,7 @@ public final class NoiseChain implements FrameSource {
      * the same three decades scaled to the rate (top band below 0.4535·fs), down to the 0.4 Hz band.
      */
     public static BandTable fidelityBands(double sampleRateHz) {
-        double hi = Math.min(Decimator.AUDIO_EDGE_HZ, Decimator.audioPassbandEdgeHz(sampleRateHz));
+        double hi = Math.min(Decimator.AUDIO_EDGE_HZ, sampleRateHz * Decimator.AUDIO_EDGE_HZ / 44_100);
         double lo = Math.max(0.4, hi / 1000);
         return BandTable.of(BandFraction.THIRD_OCTAVE, lo, hi);
     }
