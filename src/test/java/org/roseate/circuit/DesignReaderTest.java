@@ -63,7 +63,7 @@ class DesignReaderTest {
         "{\"stages\": []} ; d.json: missing key 'name'",
         "{\"name\": \"x\", \"stages\": []} ; d.json: 'stages' is empty",
         "{\"name\": \"x\", \"stages\": {}} ; d.json: 'stages' must be a list",
-        "{\"name\": \"x\", \"stages\": [{\"kind\": \"bandpass\"}]} ; d.json: stage 1: unknown kind 'bandpass'; expected inverting, noninverting or divider",
+        "{\"name\": \"x\", \"stages\": [{\"kind\": \"bandpass\"}]} ; d.json: stage 1: unknown kind 'bandpass'; expected inverting, noninverting, divider or circuit",
         "{\"name\": \"x\", \"stages\": [{\"input\": \"R1(1k)\"}]} ; d.json: stage 1: missing key 'kind'",
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1k)\"}]} ; d.json: stage 1 (inverting): missing key 'feedback'",
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1k)\", \"feedbak\": \"R2(1k)\"}]} ; d.json: stage 1 (inverting): unknown key 'feedbak'",
