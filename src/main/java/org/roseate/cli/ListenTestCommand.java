@@ -42,10 +42,10 @@ import picocli.CommandLine.Spec;
                 + "h = help; q = stop.",
             "The number of trials is fixed before the first one and the test cannot end early with a result: "
                 + "checking the score as you go and stopping when it looks good makes a chance result look "
-                + "significant far more often than 5 %.",
+                + "significant far more often than 5 %%.",
             "A, B and X replay the same seeded noise from its start at every switch, so A and B differ only by "
                 + "their filters. At the end: the count correct, the one-sided binomial p-value and the smallest "
-                + "count significant at 5 %. Every trial is logged to a JSON file."})
+                + "count significant at 5 %%. Every trial is logged to a JSON file."})
 final class ListenTestCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "A", description = "design file, ideal-pink or white")
     String a;
