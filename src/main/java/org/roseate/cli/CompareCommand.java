@@ -67,7 +67,11 @@ final class CompareCommand implements Callable<Integer> {
         for (Path f : files) {
             if (f.getFileName().toString().toLowerCase(java.util.Locale.ROOT).endsWith(".wav")) {
                 try {
-                    columns.add(org.roseate.tools.CaptureColumn.of(f, channel - 1, r, target, fraction));
+                    CaptureColumn c = CaptureColumn.of(f, channel - 1, r, target, fraction);
+                    for (String w : c.result().warnings()) {
+                        spec.commandLine().getErr().println("roseate: " + w);
+                    }
+                    columns.add(c);
                 } catch (org.roseate.measure.MeasureException | IllegalArgumentException e) {
                     throw new UserInputException(e.getMessage());
                 }

@@ -36,7 +36,16 @@ class CompareCapturesTest {
             assertEquals(mj.get("bands").get(i).get("db").asDouble(), capCol.get("bands").get(i).get("db").asDouble(), 1e-12);
             assertEquals(mj.get("bands").get(i).get("deviationDb").asDouble(),
                     capCol.get("bands").get(i).get("deviationDb").asDouble(), 1e-12);
+            // the capture column carries the measurement's ± per band (the same pipeline); designs have none
+            assertEquals(mj.get("bands").get(i).get("uncertaintyDb").asDouble(),
+                    capCol.get("bands").get(i).get("uncertaintyDb").asDouble(), 0.0);
+            assertTrue(capCol.get("bands").get(i).get("uncertaintyDb").asDouble() > 0);
+            assertTrue(cols.get(0).get("bands").get(i).get("uncertaintyDb") == null);
         }
+        assertEquals(mj.get("slopeUncertaintyDbPerOctave").asDouble(), capCol.get("slopeUncertaintyDbPerOctave").asDouble(), 0.0);
+        assertEquals(mj.get("maxBandDeviationUncertaintyDb").asDouble(), capCol.get("maxBandDeviationUncertaintyDb").asDouble(), 0.0);
+        var t = AnalyzeCommandTest.run("compare", "presets/bench-pink.json", cap.toString());
+        assertTrue(t.out().contains("±dB") && t.out().contains("± slope"), t.out());
         assertEquals(2, AnalyzeCommandTest.run("compare", "presets/bench-pink.json", dir.resolve("none.wav").toString()).status());
     }
 

@@ -105,7 +105,7 @@ class BadInputCatalogueTest {
         row("WAV file", "not RIFF", 2, false, "text.wav: not a WAV file (no RIFF header)", "measure", "@text.wav");
         row("WAV file", "truncated data chunk", 2, false, "truncated.wav: truncated: data chunk says", "measure", "@truncated.wav");
         row("WAV file", "unsupported encoding (format tag 2, ADPCM)", 2, false, "adpcm.wav: unsupported encoding (format tag 2", "measure", "@adpcm.wav");
-        row("WAV file", "channel out of range", 2, false, "ok.wav: --channel 3 is out of range; the file has 1", "measure", "@ok.wav", "--channel", "3");
+        row("WAV file", "channel out of range", 2, false, "ok.wav: channel 3 is out of range; the source has 1", "measure", "@ok.wav", "--channel", "3");
         row("WAV file", "missing file", 2, false, "nope.wav: no such file", "measure", "@nope.wav");
         // command-line arguments
         row("argument", "render --rate 12345", 2, false, "--rate: expected 44100, 48000, 96000 or 192000, found 12345", "render", "@good.json", "-o", "@r1.wav", "--rate", "12345");
