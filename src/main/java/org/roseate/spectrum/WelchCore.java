@@ -2,6 +2,7 @@ package org.roseate.spectrum;
 
 import java.util.Objects;
 import org.jtransforms.fft.DoubleFFT_1D;
+import org.jtransforms.utils.CommonUtils;
 
 /**
  * The shared engine of {@link WelchEstimator} and {@link CrossSpectrumEstimator}: frames one or
@@ -16,9 +17,23 @@ import org.jtransforms.fft.DoubleFFT_1D;
  * their lag sums S_j = Σ_s a_s·a_(s+j) for every lag j whose segments overlap, so that the total
  * squared-window weight W(t) = Σ_s a_s·w²(t − s·hop) of the record gives
  * T_eff = (Σ_t W)² / (fs·Σ_t W²) = (Σw²)² / (fs·(Σw⁴·S_0 + 2·Σ_j r_j·S_j)), with
- * r_j = Σ_i w²(i)·w²(i + j·hop). Not thread-safe; {@link #accept} allocates nothing.
+ * r_j = Σ_i w²(i)·w²(i + j·hop). Not thread-safe.
+ *
+ * <p><b>Allocation and threads.</b> For power-of-two segment lengths (every length the automatic choice
+ * gives) {@link #accept} allocates nothing and runs entirely on the calling thread: JTransforms would
+ * by default split 1-D transforms above 8192 points over its thread pool, allocating a task and a
+ * future per part on every segment, so this class raises JTransforms' process-wide thresholds for
+ * 2- and 4-thread 1-D transforms to {@link Long#MAX_VALUE} when it is first used (every 1-D FFT in the
+ * process then runs on its caller's thread; Roseate has no other). Other even lengths go through
+ * JTransforms' mixed-radix or Bluestein code, which allocates work arrays on every segment; they work,
+ * but without the no-allocation guarantee.
  */
 final class WelchCore {
+    static {
+        CommonUtils.setThreadsBeginN_1D_FFT_2Threads(Long.MAX_VALUE);
+        CommonUtils.setThreadsBeginN_1D_FFT_4Threads(Long.MAX_VALUE);
+    }
+
     private final int channels;
     private double sampleRateHz;
     private WelchSettings settings;
