@@ -81,7 +81,7 @@ class DesignReaderTest {
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1k)\", \"feedback\": \"R2(1k)\", \"opamp\": {\"openLoopGain\": 1e5}}]} ; d.json: stage 1 opamp: missing key 'gbwHz'",
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"divider\", \"series\": \"R1(1k)\", \"shunt\": \"R2(1k)\", \"opamp\": {\"gbwHz\": 1e6}}]} ; d.json: stage 1 (divider): unknown key 'opamp'",
         "{\"name\": \"x\", \"tolerance\": {\"Q\": \"1%\"}, \"stages\": [{\"kind\": \"divider\", \"series\": \"R1(1k)\", \"shunt\": \"R2(1k)\"}]} ; d.json: tolerance: unknown key 'Q'",
-        "{\"name\": \"x\", \"name\": \"y\", \"stages\": []} ; d.json: invalid JSON at line 1, column",
+        "{\"name\": \"x\", \"name\": \"y\", \"stages\": []} ; d.json: key 'name' appears twice (line 1, column",
     })
     void malformedDesigns(String json, String expectedStart) {
         DesignException e = assertThrows(DesignException.class, () -> DesignReader.parse(json, "d.json"));

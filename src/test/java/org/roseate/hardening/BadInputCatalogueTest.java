@@ -89,7 +89,7 @@ class BadInputCatalogueTest {
         row("circuit", "branch key that is not two node names", 2, false, "c-key.json: stage 1 (circuit) branches 'in-a': a branch key must be two node names", "analyze", "@c-key.json");
         row("circuit", "ideal op-amp with no feedback path", 2, false, "c-singular.json: stage 1 (circuit): the circuit's equations are singular at every frequency", "analyze", "@c-singular.json");
         row("circuit", "nodes with no connection to the rest", 2, false, "c-floating.json: stage 1 (circuit) branches: nodes p, q, r have no connection to gnd", "analyze", "@c-floating.json");
-        row("circuit", "duplicate JSON key", 2, false, "c-dupkey.json: invalid JSON at line 1, column 96: Duplicate field 'in a'", "analyze", "@c-dupkey.json");
+        row("circuit", "duplicate JSON key", 2, false, "c-dupkey.json: stage 1 branches: key 'in a' appears twice (line 1, column 116)", "analyze", "@c-dupkey.json");
         row("design file", "missing file", 2, false, "nope.json: no such file", "analyze", "@nope.json");
         row("design file", "a folder", 2, false, "folder.json: is a folder", "analyze", "@folder.json");
         row("design file", "not UTF-8", 2, false, "latin1.json: not UTF-8 text", "analyze", "@latin1.json");
