@@ -129,7 +129,16 @@ final class PowerProgram {
     }
 
     Workspace workspace() {
-        return new Workspace(depth, kindCode.length);
+        return new Workspace(depth, kindCode.length, stageKind.length);
+    }
+
+    int stageCount() {
+        return stageKind.length;
+    }
+
+    /** Whether stage s has a (non-ideal) op-amp model. */
+    boolean hasOpAmp(int s) {
+        return Double.isFinite(openLoopGain[s]);
     }
 
     /** Per-thread stacks; allocation happens here, never in {@link #power}. */
@@ -138,12 +147,16 @@ final class PowerProgram {
         final double[] im;
         final double[] values;
         final double[] inverse;
+        /** Per stage, the op-amp's gbwHz as a multiple of the design's (1 unless a tolerance run draws it). */
+        final double[] gbwFactor;
 
-        Workspace(int depth, int parts) {
+        Workspace(int depth, int parts, int stages) {
             re = new double[depth];
             im = new double[depth];
             values = new double[parts];
             inverse = new double[parts];
+            gbwFactor = new double[stages];
+            java.util.Arrays.fill(gbwFactor, 1.0);
         }
     }
 
@@ -238,7 +251,7 @@ final class PowerProgram {
                     p = num;
                 } else {
                     double invAr = 1 / openLoopGain[s];
-                    double invAi = omegaRadPerS * tauSeconds[s] / openLoopGain[s];
+                    double invAi = omegaRadPerS * tauSeconds[s] / (openLoopGain[s] * w.gbwFactor[s]);
                     double opr = 1 + gr;
                     double dr = 1 + opr * invAr - gi * invAi;
                     double di = opr * invAi + gi * invAr;
