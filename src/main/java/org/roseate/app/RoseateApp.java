@@ -18,7 +18,7 @@ public final class RoseateApp extends Application {
                 && !"Monocle".equals(System.getProperty("glass.platform"))) {
             System.err.println("roseate: no display for the window; run a subcommand instead, e.g. "
                     + "'java -jar roseate.jar analyze presets/bench-pink.json' (see --help)");
-            System.exit(3);
+            System.exit(org.roseate.cli.RoseateCommand.EXIT_NO_DISPLAY);
         }
         Application.launch(RoseateApp.class, args);
     }

@@ -1,6 +1,8 @@
 package org.roseate.cli;
 
+import org.roseate.bands.Band;
 import org.roseate.bands.BandFraction;
+import org.roseate.bands.BandTable;
 import org.roseate.compare.FrequencyRange;
 import org.roseate.compare.TargetSlope;
 import picocli.CommandLine.Option;
@@ -17,8 +19,20 @@ final class BandOptions {
             description = "target slope in dB/octave, or pink, white, brown, blue (default: ${DEFAULT-VALUE} = −3.0103)")
     String slope;
 
+    /**
+     * The range, refused when it reaches beyond the bands Roseate tabulates (IEC 61260-1 nominal
+     * midbands {@link Band#MIN_NOMINAL_HZ} to {@link Band#MAX_NOMINAL_HZ} Hz): a range past them
+     * would be cut silently.
+     */
     FrequencyRange range() {
-        return Inputs.range(range);
+        FrequencyRange r = Inputs.range(range);
+        double slack = 1 + BandTable.RELATIVE_SLACK;
+        if (r.loHz() < Band.MIN_NOMINAL_HZ / slack || r.hiHz() > Band.MAX_NOMINAL_HZ * slack) {
+            throw new UserInputException("--range: " + range + " reaches beyond the analysable range, "
+                    + Numbers.hz(Band.MIN_NOMINAL_HZ) + " to " + Numbers.hz(Band.MAX_NOMINAL_HZ)
+                    + " (the nominal midbands of the IEC 61260-1 bands Roseate tabulates)");
+        }
+        return r;
     }
 
     TargetSlope target() {

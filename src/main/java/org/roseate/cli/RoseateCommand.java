@@ -20,6 +20,8 @@ public final class RoseateCommand implements Runnable {
     public static final int EXIT_BAD_INPUT = 2;
     /** Exit status for audio-device trouble. */
     public static final int EXIT_DEVICE = 3;
+    /** Exit status when the window cannot open because there is no display. */
+    public static final int EXIT_NO_DISPLAY = 4;
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
@@ -37,6 +39,10 @@ public final class RoseateCommand implements Runnable {
     /** As {@link #run(String...)}, writing to the given streams (for tests). */
     public static int run(PrintWriter out, PrintWriter err, String... args) {
         CommandLine cl = new CommandLine(new RoseateCommand());
+        // -V on a subcommand prints the same version line as on the top command
+        for (CommandLine sub : cl.getSubcommands().values()) {
+            sub.getCommandSpec().versionProvider(new Version());
+        }
         cl.setOut(out);
         cl.setErr(err);
         cl.setCaseInsensitiveEnumValuesAllowed(true);

@@ -88,6 +88,17 @@ public final class ChartFiles {
         for (Panel p : chart.panels()) {
             plot.add(panel(p), 1);
         }
+        // One legend entry per series: a series drawn in several panels (compare's levels and
+        // deviations) has the same name and colour in each, so its first entry stands for all.
+        org.jfree.chart.LegendItemCollection unique = new org.jfree.chart.LegendItemCollection();
+        java.util.Set<String> seen = new java.util.HashSet<>();
+        for (java.util.Iterator<?> it = plot.getLegendItems().iterator(); it.hasNext();) {
+            org.jfree.chart.LegendItem item = (org.jfree.chart.LegendItem) it.next();
+            if (seen.add(item.getLabel())) {
+                unique.add(item);
+            }
+        }
+        plot.setFixedLegendItems(unique);
         JFreeChart jc = new JFreeChart(chart.title(), new Font(Font.SANS_SERIF, Font.BOLD, 16), plot, true);
         jc.setBackgroundPaint(Palette.BACKGROUND);
         return jc;

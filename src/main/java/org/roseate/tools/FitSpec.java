@@ -13,10 +13,10 @@ import org.roseate.compare.TargetSlope;
  * the target, and the search settings.
  *
  * @param start           the topology and the starting values
- * @param free            designators of the free components (R and C only), others stay fixed
- * @param gainResistor    an input resistor of the first inverting stage that only sets the gain
- *                        (it cannot change a centred deviation): after the fit it is set to the
- *                        standard value nearest to unity gain at 1 kHz, within the limits
+ * @param free            designators of the free components (R and C only); every other part is
+ *                        held: its value is copied unchanged, bit for bit, into both answers
+ * @param gain            a gain to hold, or empty to fit the shape alone (then the overall gain
+ *                        goes wherever the shape takes it)
  * @param range           the frequency range compared
  * @param target          the target slope
  * @param fraction        the band width of the band deviation
@@ -28,7 +28,7 @@ import org.roseate.compare.TargetSlope;
  * @param pointwiseWeight weight w ≥ 0 of the pointwise peak in the objective
  *                        band peak + w·pointwise peak
  */
-public record FitSpec(Design start, List<String> free, Optional<String> gainResistor, FrequencyRange range,
+public record FitSpec(Design start, List<String> free, Optional<GainHold> gain, FrequencyRange range,
         TargetSlope target, BandFraction fraction, SeriesChoice series, PartLimits limits, int starts, long seed,
         int threads, double pointwiseWeight) {
     /**
@@ -41,7 +41,7 @@ public record FitSpec(Design start, List<String> free, Optional<String> gainResi
     public FitSpec {
         Objects.requireNonNull(start, "start");
         free = List.copyOf(free);
-        Objects.requireNonNull(gainResistor, "gainResistor");
+        Objects.requireNonNull(gain, "gain");
         Objects.requireNonNull(range, "range");
         Objects.requireNonNull(target, "target");
         Objects.requireNonNull(fraction, "fraction");
@@ -51,8 +51,10 @@ public record FitSpec(Design start, List<String> free, Optional<String> gainResi
             throw new IllegalArgumentException("no free components to fit");
         }
         for (String d : free) {
-            if (start.component(d).isEmpty()) {
-                throw new IllegalArgumentException("free component " + d + " is not in the design");
+            var c = start.component(d)
+                    .orElseThrow(() -> new IllegalArgumentException("free component " + d + " is not in the design"));
+            if (c.kind() == org.roseate.value.ComponentKind.INDUCTOR) {
+                throw new IllegalArgumentException(d + " is an inductor; fit frees resistors and capacitors only (hold it)");
             }
         }
         if (starts < 1 || threads < 1) {

@@ -13,36 +13,41 @@ import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import java.util.concurrent.atomic.AtomicLong;
 import java.util.function.DoubleConsumer;
-import org.apache.commons.math3.exception.TooManyEvaluationsException;
-import org.apache.commons.math3.exception.TooManyIterationsException;
-import org.apache.commons.math3.optim.InitialGuess;
-import org.apache.commons.math3.optim.MaxEval;
-import org.apache.commons.math3.optim.MaxIter;
-import org.apache.commons.math3.optim.SimpleBounds;
-import org.apache.commons.math3.optim.nonlinear.scalar.GoalType;
-import org.apache.commons.math3.optim.nonlinear.scalar.ObjectiveFunction;
-import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.CMAESOptimizer;
-import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.NelderMeadSimplex;
-import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.SimplexOptimizer;
-import org.apache.commons.math3.random.MersenneTwister;
+import org.hipparchus.exception.MathIllegalStateException;
+import org.hipparchus.optim.InitialGuess;
+import org.hipparchus.optim.MaxEval;
+import org.hipparchus.optim.MaxIter;
+import org.hipparchus.optim.SimpleBounds;
+import org.hipparchus.optim.nonlinear.scalar.GoalType;
+import org.hipparchus.optim.nonlinear.scalar.ObjectiveFunction;
+import org.hipparchus.optim.nonlinear.scalar.noderiv.CMAESOptimizer;
+import org.hipparchus.optim.nonlinear.scalar.noderiv.NelderMeadSimplex;
+import org.hipparchus.optim.nonlinear.scalar.noderiv.SimplexOptimizer;
+import org.hipparchus.random.MersenneTwister;
 import org.roseate.bands.BandTable;
 import org.roseate.circuit.Component;
 import org.roseate.circuit.Design;
 import org.roseate.compare.DesignAnalysis;
 import org.roseate.compare.LogGrid;
 import org.roseate.model.CircuitModel;
+import org.roseate.tools.FitResult.ClampedValue;
 import org.roseate.tools.FitResult.FitScore;
 import org.roseate.value.ComponentKind;
 import org.roseate.value.ESeries;
 
 /**
  * Fits component values so a design follows a target slope: minimises J = (band peak deviation)
- * + w·(pointwise peak deviation), both centred minimax measures in dB (see {@link FitSpec}).
+ * + w·(pointwise peak deviation) + {@value #GAIN_WEIGHT}·|gain error|, the first two centred
+ * minimax measures in dB (see {@link FitSpec}), the last the distance in dB of 20·log10|H| at the
+ * held frequency from the held gain (only when {@link FitSpec#gain()} holds one). Only the parts
+ * named free move; every other part keeps its value bit for bit. A free part whose starting value
+ * lies outside the limits starts at the nearest limit and is reported in
+ * {@link FitResult#clamped()}.
  *
  * <ol>
  *   <li>Continuous: from {@link FitSpec#starts()} starts in ln-value space (start 0 the design's
  *       own values, the others log-normal perturbations of it, σ = 0.7 neper), CMA-ES (Hansen's
- *       covariance-matrix adaptation, Apache Commons Math 3.5) on J within the limits, then a
+ *       covariance-matrix adaptation, Hipparchus 4.0.2) on J within the limits, then a
  *       Nelder–Mead polish. CMA-ES needs no gradient, so the kinks of a minimax objective do not
  *       stall it. Starts run in parallel; each has its own seed derived from (seed, start).</li>
  *   <li>Discrete: each free part may take the standard values within two steps of its continuous
@@ -55,6 +60,19 @@ import org.roseate.value.ESeries;
  * Results depend on the seed only, not on the thread count.
  */
 public final class Fitter {
+    /**
+     * Weight of the gain error in J on continuous values, per dB. A centred deviation does not see
+     * the overall gain, so the continuous optimum meets the held gain exactly at no cost in shape.
+     */
+    public static final double GAIN_WEIGHT = 1.0;
+    /**
+     * On standard values the overall scale moves in E-series steps (one E24 step is 0.83 dB), so
+     * an exact gain would cost shape: the discrete search lets the gain err by up to this much at
+     * no cost, dB (a quarter of an E24 step, rounded).
+     */
+    public static final double STANDARD_GAIN_SLACK_DB = 0.2;
+    /** Weight per dB of the gain error beyond {@link #STANDARD_GAIN_SLACK_DB} on standard values: steep, a near-hard limit. */
+    public static final double STANDARD_GAIN_WEIGHT = 10.0;
     private static final double START_SIGMA_NEPER = 0.7;
     private static final double CMA_SIGMA_NEPER = 0.3;
     private static final int CMA_EVALUATIONS_PER_PARAMETER = 500;
@@ -70,6 +88,8 @@ public final class Fitter {
     private final double[] lnHi;
     private final ESeries[] seriesOf;
     private final double[] base;
+    private final List<ClampedValue> clamped = new ArrayList<>();
+    private final double gainOmega;
     private final AtomicLong evaluations = new AtomicLong();
 
     private Fitter(FitSpec spec) {
@@ -90,6 +110,18 @@ public final class Fitter {
             seriesOf[i] = spec.series().of(kind);
         }
         base = program.nominal();
+        for (int i = 0; i < n; i++) {
+            double lo = Math.exp(lnLo[i]);
+            double hi = Math.exp(lnHi[i]);
+            double v = base[slots[i]];
+            if (v < lo || v > hi) {
+                double to = v < lo ? spec.limits().min(program.parts().get(slots[i]).kind())
+                        : spec.limits().max(program.parts().get(slots[i]).kind());
+                clamped.add(new ClampedValue(spec.free().get(i), v, to));
+                base[slots[i]] = to;
+            }
+        }
+        gainOmega = 2 * Math.PI * spec.gain().map(GainHold::atHz).orElse(1000.0);
     }
 
     /**
@@ -144,11 +176,19 @@ public final class Fitter {
             snaps.sort(Comparator.comparingDouble(Candidate::objective));
             Candidate bestSnapped = snaps.get(0);
 
-            Design continuousDesign = design(bestContinuous.free(), false);
-            Design snappedDesign = design(bestSnapped.free(), true);
+            Design continuousDesign = design(bestContinuous.free());
+            Design snappedDesign = design(bestSnapped.free());
             progress.accept(1);
-            return new FitResult(continuousDesign, snappedDesign, score(continuousDesign), score(snappedDesign),
-                    analyse(continuousDesign), analyse(snappedDesign), evaluations.get(),
+            List<String> atLimit = new ArrayList<>();
+            for (int i = 0; i < n; i++) {
+                double v = bestSnapped.free()[i];
+                if (v <= Math.exp(lnLo[i]) * (1 + ESeries.RELATIVE_SLACK) || v >= Math.exp(lnHi[i]) * (1 - ESeries.RELATIVE_SLACK)) {
+                    atLimit.add(spec.free().get(i));
+                }
+            }
+            return new FitResult(continuousDesign, snappedDesign, score(continuousDesign, false), score(snappedDesign, true),
+                    analyse(continuousDesign), analyse(snappedDesign), spec.gain(), gainDb(spec.start()),
+                    gainDb(continuousDesign), gainDb(snappedDesign), clamped, atLimit, evaluations.get(),
                     (System.nanoTime() - t0) / 1e9);
         } finally {
             pool.shutdownNow();
@@ -209,8 +249,24 @@ public final class Fitter {
     }
 
     private double objective(double[] values, Scorer.Workspace w) {
+        return objective(values, w, false);
+    }
+
+    /** J on continuous values, or with {@code standard} the discrete search's J (gain slack). */
+    private double objective(double[] values, Scorer.Workspace w, boolean standard) {
         double band = scorer.bandPeakDb(values, w);
-        return spec.pointwiseWeight() == 0 ? band : band + spec.pointwiseWeight() * scorer.pointPeakDb(values, w);
+        double j = band;
+        if (spec.gain().isPresent()) {
+            double e = Math.abs(gainErrorDb(w));
+            j += standard ? STANDARD_GAIN_WEIGHT * Math.max(0, e - STANDARD_GAIN_SLACK_DB) : GAIN_WEIGHT * e;
+        }
+        return spec.pointwiseWeight() == 0 ? j : j + spec.pointwiseWeight() * scorer.pointPeakDb(values, w);
+    }
+
+    /** 20·log10|H| at the held frequency minus the held gain, for the values last loaded into w. */
+    private double gainErrorDb(Scorer.Workspace w) {
+        double db = 10 * Math.log10(scorer.program().power(gainOmega, w.power()));
+        return db - spec.gain().map(GainHold::gainDb).orElse(0.0);
     }
 
     private Candidate continuous(int start, long budget, DoubleConsumer progress) {
@@ -232,8 +288,8 @@ public final class Fitter {
             cma.optimize(new MaxEval(n * CMA_EVALUATIONS_PER_PARAMETER), new ObjectiveFunction(f::value),
                     GoalType.MINIMIZE, new InitialGuess(x0), new SimpleBounds(lnLo, lnHi),
                     new CMAESOptimizer.Sigma(sigma), new CMAESOptimizer.PopulationSize(4 + (int) (3 * Math.log(n)) + 4));
-        } catch (TooManyEvaluationsException | TooManyIterationsException e) {
-            // the best point seen is kept by the objective
+        } catch (MathIllegalStateException e) {
+            // evaluation or iteration budget spent: the best point seen is kept by the objective
         }
         SimplexOptimizer nm = new SimplexOptimizer(1e-12, 1e-14);
         double[] steps = new double[n];
@@ -242,7 +298,7 @@ public final class Fitter {
             nm.optimize(new MaxEval(n * POLISH_EVALUATIONS_PER_PARAMETER), new MaxIter(Integer.MAX_VALUE),
                     new ObjectiveFunction(f::value), GoalType.MINIMIZE, new InitialGuess(f.bestLn.clone()),
                     new NelderMeadSimplex(steps));
-        } catch (TooManyEvaluationsException | TooManyIterationsException e) {
+        } catch (MathIllegalStateException e) {
             // as above
         }
         double[] free = new double[n];
@@ -281,7 +337,7 @@ public final class Fitter {
         for (int i = 0; i < n; i++) {
             values[slots[i]] = cand[i][pick[i]];
         }
-        double best = objective(values, w);
+        double best = objective(values, w, true);
         boolean improved = true;
         while (improved) {
             improved = false;
@@ -291,7 +347,7 @@ public final class Fitter {
                         continue;
                     }
                     values[slots[i]] = cand[i][a];
-                    double j = objective(values, w);
+                    double j = objective(values, w, true);
                     evaluations.incrementAndGet();
                     if (j < best - 1e-12) {
                         best = j;
@@ -314,7 +370,7 @@ public final class Fitter {
                             }
                             values[slots[i]] = cand[i][a];
                             values[slots[k]] = cand[k][b];
-                            double j = objective(values, w);
+                            double j = objective(values, w, true);
                             evaluations.incrementAndGet();
                             if (j < best - 1e-12) {
                                 best = j;
@@ -349,42 +405,35 @@ public final class Fitter {
         return best;
     }
 
-    private Design design(double[] free, boolean standard) {
+    /** The start design with the free values replaced; held parts keep their values exactly. */
+    private Design design(double[] free) {
         Map<String, Double> values = new HashMap<>();
         for (int i = 0; i < free.length; i++) {
             values.put(spec.free().get(i), free[i]);
         }
-        Design d = spec.start().withValues(values);
-        if (spec.gainResistor().isPresent()) {
-            String g = spec.gainResistor().get();
-            Component rg = d.component(g).orElseThrow(() -> new IllegalArgumentException("gain resistor " + g + " is not in the design"));
-            CircuitModel m = CircuitModel.of(d, d.name());
-            double unity = Math.sqrt(m.magnitudeSquared(1000)) * rg.value();
-            double lo = spec.limits().minOhms();
-            double hi = spec.limits().maxOhms();
-            double v = Topologies.clamp(unity, lo, hi);
-            if (standard) {
-                ESeries e = spec.series().resistors();
-                v = e.nearest(v);
-                if (v > hi * (1 + ESeries.RELATIVE_SLACK)) {
-                    v = e.stepDown(v);
-                } else if (v < lo * (1 - ESeries.RELATIVE_SLACK)) {
-                    v = e.stepUp(v);
-                }
-            }
-            d = d.withValue(g, v);
-        }
-        return d;
+        return spec.start().withValues(values);
     }
 
-    private FitScore score(Design d) {
+    /** 20·log10|H| at the held frequency (1 kHz when none is held), through the exact model. */
+    private double gainDb(Design d) {
+        return 20 * Math.log10(CircuitModel.of(d, d.name()).response(gainOmega / (2 * Math.PI)).abs());
+    }
+
+    private FitScore score(Design d, boolean standard) {
         PowerProgram p = PowerProgram.of(d);
         Scorer s = new Scorer(p, spec.range(), spec.target(), scorer.table());
         Scorer.Workspace w = s.workspace();
         double[] v = p.nominal();
         double band = s.bandPeakDb(v, w);
+        double gainError = 0;
+        if (spec.gain().isPresent()) {
+            double db = 10 * Math.log10(p.power(gainOmega, w.power()));
+            gainError = db - spec.gain().get().gainDb();
+        }
         double point = s.pointPeakDb(v, w);
-        return new FitScore(band, point, band + spec.pointwiseWeight() * point);
+        double gainCost = standard ? STANDARD_GAIN_WEIGHT * Math.max(0, Math.abs(gainError) - STANDARD_GAIN_SLACK_DB)
+                : GAIN_WEIGHT * Math.abs(gainError);
+        return new FitScore(band, point, gainError, band + spec.pointwiseWeight() * point + gainCost);
     }
 
     private DesignAnalysis analyse(Design d) {

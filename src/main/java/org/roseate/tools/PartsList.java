@@ -42,6 +42,56 @@ public final class PartsList {
         }
     }
 
+    /**
+     * Parts of equal kind, value and tolerance, to buy together.
+     *
+     * @param designators the parts, in design order
+     * @param first       the first of them (value, series, advice)
+     */
+    public record Group(List<String> designators, Part first) {
+        public Group {
+            designators = List.copyOf(designators);
+        }
+
+        public int quantity() {
+            return designators.size();
+        }
+    }
+
+    /**
+     * An op-amp of the design with its model keys as the design file writes them.
+     *
+     * @param name         "U" and the stage number, e.g. "U1"
+     * @param stage        the stage, 1-based
+     * @param gbwHz        the gain-bandwidth product, Hz ({@code gbwHz})
+     * @param openLoopGain the DC open-loop gain, ratio ({@code openLoopGain})
+     */
+    public record OpAmpEntry(String name, int stage, double gbwHz, double openLoopGain) {
+    }
+
+    /** Equal parts grouped, in the order of their first appearance. */
+    public static List<Group> grouped(Design design) {
+        java.util.Map<String, List<Part>> byKey = new java.util.LinkedHashMap<>();
+        for (Part p : of(design)) {
+            String key = p.kind() + "|" + p.value() + "|" + p.tolerance().map(Tolerance::fraction).orElse(-1.0);
+            byKey.computeIfAbsent(key, k -> new ArrayList<>()).add(p);
+        }
+        List<Group> out = new ArrayList<>();
+        byKey.values().forEach(ps -> out.add(new Group(ps.stream().map(Part::designator).toList(), ps.get(0))));
+        return out;
+    }
+
+    /** The op-amps with a model in the design, stage by stage (an ideal op-amp has none). */
+    public static List<OpAmpEntry> opAmps(Design design) {
+        List<OpAmpEntry> out = new ArrayList<>();
+        for (int s = 0; s < design.stages().size(); s++) {
+            final int stage = s + 1;
+            design.stages().get(s).opamp().ifPresent(o -> out.add(new OpAmpEntry(
+                    ToleranceOverrides.OPAMP_GBW_KEY + stage, stage, o.gbwHz(), o.openLoopGain())));
+        }
+        return out;
+    }
+
     /** Every component of the design, in design order. */
     public static List<Part> of(Design design) {
         List<Part> out = new ArrayList<>();

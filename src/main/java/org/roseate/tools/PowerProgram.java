@@ -78,6 +78,9 @@ final class PowerProgram {
             Network b;
             if (st instanceof CircuitStage c) {
                 stageKind[s] = KIND_CIRCUIT;
+                // a circuit's op-amps live in its nodal equations; the gbwHz spread of tolerance
+                // runs applies to the older kinds' single op-amp only
+                openLoopGain[s] = Double.POSITIVE_INFINITY;
                 nodal[s] = NodalSolver.of(c);
                 List<String> keys = nodal[s].branchKeys();
                 branchPrograms[s] = new int[keys.size()][];
@@ -156,6 +159,15 @@ final class PowerProgram {
         return new Workspace(depth, kindCode.length, n);
     }
 
+    int stageCount() {
+        return stageKind.length;
+    }
+
+    /** Whether stage s has a (non-ideal) op-amp model. */
+    boolean hasOpAmp(int s) {
+        return Double.isFinite(openLoopGain[s]);
+    }
+
     /** Per-thread stacks; allocation happens here, never in {@link #power}. */
     static final class Workspace {
         final double[] re;
@@ -163,6 +175,8 @@ final class PowerProgram {
         final double[] values;
         final double[] inverse;
         final NodalSolver.Workspace[] nodal;
+        /** Per stage, the op-amp's gbwHz as a multiple of the design's (1 unless a tolerance run draws it). */
+        final double[] gbwFactor;
 
         Workspace(int depth, int parts, NodalSolver.Workspace[] nodal) {
             re = new double[depth];
@@ -170,6 +184,8 @@ final class PowerProgram {
             values = new double[parts];
             inverse = new double[parts];
             this.nodal = nodal;
+            gbwFactor = new double[nodal.length];
+            java.util.Arrays.fill(gbwFactor, 1.0);
         }
     }
 
@@ -268,7 +284,7 @@ final class PowerProgram {
                     p = num;
                 } else {
                     double invAr = 1 / openLoopGain[s];
-                    double invAi = omegaRadPerS * tauSeconds[s] / openLoopGain[s];
+                    double invAi = omegaRadPerS * tauSeconds[s] / (openLoopGain[s] * w.gbwFactor[s]);
                     double opr = 1 + gr;
                     double dr = 1 + opr * invAr - gi * invAi;
                     double di = opr * invAi + gi * invAr;

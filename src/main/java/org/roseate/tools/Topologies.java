@@ -31,8 +31,8 @@ public final class Topologies {
      * series-RC branches.
      *
      * @param branches   1 to 12
-     * @param inputOhms  the input resistor, or empty to let the fitter choose it (see
-     *                   {@link FitSpec#gainResistor()})
+     * @param inputOhms  the input resistor, or empty to start it where the stage has unity gain
+     *                   at 1 kHz (the fitter may then free it to hold a gain)
      */
     public static Design invertingLadder(int branches, OptionalDouble inputOhms, Optional<OpAmp> opamp,
             PartLimits limits, FrequencyRange range) {
@@ -41,8 +41,13 @@ public final class Topologies {
         double rin = inputOhms.orElse(zRef);
         Component input = new Component("R1", ComponentKind.RESISTOR, rin);
         String desc = "Inverting pink ladder, " + branches + " series-RC branches, fitted by roseate fit.";
-        return new Design("Fitted inverting ladder (" + branches + " branches)", desc,
+        Design d = new Design("Fitted inverting ladder (" + branches + " branches)", desc,
                 List.of(new InvertingStage(input, feedback, opamp)), Map.of());
+        if (inputOhms.isEmpty()) {
+            double unity = rin * org.roseate.model.CircuitModel.of(d, d.name()).response(1000).abs();
+            d = d.withValue("R1", clamp(unity, limits.minOhms(), limits.maxOhms()));
+        }
+        return d;
     }
 
     /**
@@ -100,6 +105,24 @@ public final class Topologies {
 
     private static Component capacitor(int n, double farads, PartLimits limits) {
         return new Component("C" + n, ComponentKind.CAPACITOR, clamp(farads, limits.minFarads(), limits.maxFarads()));
+    }
+
+    /**
+     * The parts that feed the signal into the first stage and set its gain against the rest: the
+     * first stage's {@code input} network (an inverting stage) or {@code series} network (a
+     * divider); none for a non-inverting stage, whose input goes straight to the op-amp. Looked up
+     * by network role, so any stage kind with a role of that name is served the same way.
+     */
+    public static List<String> inputParts(Design design) {
+        var networks = design.stages().get(0).networks();
+        List<String> out = new ArrayList<>();
+        for (String role : List.of("input", "series")) {
+            Network n = networks.get(role);
+            if (n != null) {
+                n.components().forEach(c -> out.add(c.designator()));
+            }
+        }
+        return out;
     }
 
     static double clamp(double v, double lo, double hi) {

@@ -64,6 +64,19 @@ class ChartFilesTest {
     }
 
     @Test
+    void aSeriesDrawnInTwoPanelsHasOneLegendEntry() {
+        // compare draws each column twice (levels above, deviations below) under the same name
+        double[] hz = {20, 200, 2000};
+        double[] db = {1, 0, -1};
+        Panel top = new Panel("Level", List.of(new Curve("A.json", hz, db, false), new Curve("B.json", hz, db, false)), List.of(), List.of());
+        Panel bottom = new Panel("Deviation", List.of(new Curve("A.json", hz, db, false), new Curve("B.json", hz, db, false)), List.of(), List.of());
+        var legend = ChartFiles.render(new FrequencyChart("two", List.of(top, bottom))).getPlot().getLegendItems();
+        assertEquals(2, legend.getItemCount());
+        assertEquals("A.json", legend.get(0).getLabel());
+        assertEquals("B.json", legend.get(1).getLabel());
+    }
+
+    @Test
     void tickLabels() {
         assertEquals("20 Hz", FrequencyAxis.label(20));
         assertEquals("500 Hz", FrequencyAxis.label(500));

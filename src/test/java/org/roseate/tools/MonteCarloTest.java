@@ -33,7 +33,7 @@ class MonteCarloTest {
 
     static MonteCarlo.Result run(Design d, int trials, long seed, int threads, double limitDb, FrequencyRange r) {
         return MonteCarlo.run(new MonteCarlo.Spec(d, r, TargetSlope.PINK, BandFraction.THIRD_OCTAVE, trials,
-                Distribution.UNIFORM, seed, limitDb, threads), f -> { });
+                Distribution.UNIFORM, seed, limitDb, threads, false), f -> { });
     }
 
     @Test
@@ -121,11 +121,64 @@ class MonteCarloTest {
         FrequencyRange r = new FrequencyRange(20, 20000);
         MonteCarlo.Result one = run(d, 300, 5, 1, 1, r);
         MonteCarlo.Result two = run(d, 300, 5, 2, 1, r);
-        assertArrayEquals(one.peakSamplesDb(), two.peakSamplesDb());
-        int total = 0;
-        for (int c : one.histogram().counts()) {
+        assertEquals(one.peakDb(), two.peakDb());
+        assertEquals(one.maxPeakDb(), two.maxPeakDb());
+        assertArrayEquals(one.histogram().counts(), two.histogram().counts());
+        for (int i = 0; i < one.bands().size(); i++) {
+            assertEquals(one.bands().get(i), two.bands().get(i));
+        }
+        long total = 0;
+        for (long c : one.histogram().counts()) {
             total += c;
         }
         assertEquals(300, total);
+    }
+
+    @Test
+    void sensitivitiesAreRankedByContributionWithTheRawSensitivityBeside() {
+        // One pole: R1 and C1 have the same sensitivity (only their product RC appears), so the
+        // ranking must follow the tolerance alone: C1 at 5 % above R1 at 1 %, contribution = raw × percent.
+        MonteCarlo.Result res = run(onePole(Map.of("R", new Tolerance(0.01), "C", new Tolerance(0.05))), 10, 1, 1, 1,
+                new FrequencyRange(20, 20000));
+        MonteCarlo.PartSensitivity first = res.sensitivities().get(0);
+        MonteCarlo.PartSensitivity second = res.sensitivities().get(1);
+        assertEquals("C1", first.designator());
+        assertEquals("R1", second.designator());
+        assertEquals(first.maxShapeDb(), second.maxShapeDb(), 1e-9, "same raw sensitivity (closed form: only RC appears)");
+        assertEquals(5 * first.maxShapeDb(), first.contributionDb(), 1e-12);
+        assertEquals(1 * second.maxShapeDb(), second.contributionDb(), 1e-12);
+    }
+
+    /** H = −1/(1 + (1 + 1)/A): an inverting stage of gain −1 on a single-pole op-amp. */
+    static Design unityInverter(double gbwHz, Map<String, Tolerance> tol) {
+        return new Design("unity inverter", "", List.of(new org.roseate.circuit.InvertingStage(
+                new Component("R1", ComponentKind.RESISTOR, 10e3), new Component("R2", ComponentKind.RESISTOR, 10e3),
+                Optional.of(new org.roseate.circuit.OpAmp(gbwHz, 1e5)))), tol);
+    }
+
+    @Test
+    void opAmpGainBandwidthSpreadsWhenAToleranceIsGivenForIt() {
+        // Gain −1 on an op-amp of GBW 40 kHz: the closed-loop corner is GBW/2 = 20 kHz (noise gain 2,
+        // closed form for a single-pole op-amp), so the top band's level depends on GBW and nothing else
+        // varies. Judged against the nominal design, the spread must be zero without the U tolerance.
+        FrequencyRange r = new FrequencyRange(1000, 20000);
+        Design held = unityInverter(40e3, Map.of());
+        Design spread = unityInverter(40e3, Map.of("U", new Tolerance(0.3)));
+        MonteCarlo.Result a = MonteCarlo.run(new MonteCarlo.Spec(held, r, TargetSlope.WHITE, BandFraction.THIRD_OCTAVE, 200,
+                Distribution.UNIFORM, 1, 1, 1, true), f -> { });
+        MonteCarlo.Result b = MonteCarlo.run(new MonteCarlo.Spec(spread, r, TargetSlope.WHITE, BandFraction.THIRD_OCTAVE, 200,
+                Distribution.UNIFORM, 1, 1, 1, true), f -> { });
+        MonteCarlo.BandSpread topA = a.bands().get(a.bands().size() - 1);
+        MonteCarlo.BandSpread topB = b.bands().get(b.bands().size() - 1);
+        assertEquals(0, topA.levelDb().p95() - topA.levelDb().p5(), 2 * BinnedQuantiles.ERROR_DB, "no spread without U");
+        assertTrue(topB.levelDb().p95() - topB.levelDb().p5() > 0.3, "GBW ±30 % moves the 20 kHz band: "
+                + (topB.levelDb().p95() - topB.levelDb().p5()));
+        assertEquals(List.of("U1"), b.toleranced().stream().filter(x -> x.startsWith("U")).toList());
+        assertEquals("U1", b.sensitivities().get(0).designator(), "the op-amp is the only drawn part");
+        // Against the nominal design, the nominal deviation is zero in every band by construction.
+        for (MonteCarlo.BandSpread x : b.bands()) {
+            assertEquals(0, x.nominalDeviationDb(), 1e-12);
+        }
+        assertEquals(0, b.nominalPeakDb(), 1e-12);
     }
 }
