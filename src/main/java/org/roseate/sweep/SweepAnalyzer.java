@@ -31,9 +31,11 @@ import org.jtransforms.fft.DoubleFFT_1D;
  *       probability e⁻⁹ ≈ 10⁻⁴ by Rayleigh-distributed noise). A figure whose noise exceeds half
  *       its signal is not given.</li>
  * </ol>
- * Not thread-safe state is kept: every call works on its own arrays.
+ * Stateless and thread-safe: every call works on its own arrays.
  */
 public final class SweepAnalyzer {
+    /** Longest FFT, frames: 2^24 (128 MB per array; four arrays are live at once). */
+    static final int MAX_FFT_LENGTH = 1 << 24;
     /** In-band regularisation relative to max|S|². */
     static final double IN_BAND_EPSILON = 1e-8;
     /** Noise amplitude bound in units of its RMS. */
@@ -77,7 +79,13 @@ public final class SweepAnalyzer {
         int ns = spec.lengthFrames();
         int nr = response.length;
         Windows w = Windows.of(spec);
-        int n = Integer.highestOneBit(Math.max(2, nr + ns + w.linPre + w.linPost + 2) - 1) * 2;
+        long needed = (long) nr + ns + w.linPre + w.linPost + 2;
+        if (needed > MAX_FFT_LENGTH) {
+            throw new IllegalArgumentException(String.format(java.util.Locale.ROOT,
+                    "recording plus sweep (%d frames) exceed the %d frames one analysis can hold (%.0f s at %.0f Hz)",
+                    needed, MAX_FFT_LENGTH, MAX_FFT_LENGTH / fs, fs));
+        }
+        int n = Integer.highestOneBit((int) needed - 1) * 2;
 
         double[] inverse = inverseSpectrum(spec, n);
         double[] dResp = deconvolve(response, inverse, n);
