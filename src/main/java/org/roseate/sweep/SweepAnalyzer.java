@@ -29,13 +29,32 @@ import org.jtransforms.fft.DoubleFFT_1D;
  *       where the deconvolved recording holds only noise: its power is averaged over seven
  *       frequencies across ±1/12 octave and its amplitude taken as 3× the RMS (exceeded with
  *       probability e⁻⁹ ≈ 10⁻⁴ by Rayleigh-distributed noise). A figure whose noise exceeds half
- *       its signal is not given.</li>
+ *       its signal is not given. The bounds add allowances for the method's own error
+ *       ({@link #MAGNITUDE_METHOD_DB} and its neighbours).</li>
  * </ol>
- * Not thread-safe state is kept: every call works on its own arrays.
+ * Stateless and thread-safe: every call works on its own arrays.
  */
 public final class SweepAnalyzer {
+    /** Longest FFT, frames: 2^24 (128 MB per array; four arrays are live at once). */
+    static final int MAX_FFT_LENGTH = 1 << 24;
     /** In-band regularisation relative to max|S|². */
     static final double IN_BAND_EPSILON = 1e-8;
+    /**
+     * Allowances for what the method itself gets wrong, added to the noise bounds: the linear window
+     * truncates the ringing of the sweep's low band edge. Measured on the known filter of
+     * SweepAnalyzerTest (20 Hz–22 kHz, 5 s): worst 0.010 dB and 0.06° from 2.5·f₁ up, 0.056 dB and
+     * 0.33° below; the allowances are about twice that.
+     */
+    static final double LOW_EDGE_FACTOR = 2.5;
+    static final double MAGNITUDE_METHOD_DB = 0.02;
+    static final double MAGNITUDE_METHOD_DB_LOW = 0.1;
+    static final double PHASE_METHOD_DEG = 0.15;
+    static final double PHASE_METHOD_DEG_LOW = 0.7;
+    /**
+     * Allowance on the harmonic levels: the issue's 0.5 dB, which the closed-form tests meet with
+     * worst errors of 0.29 dB (2nd) and 0.19 dB (3rd), part of it aliasing in the test's own system.
+     */
+    static final double HARMONIC_METHOD_DB = 0.5;
     /** Noise amplitude bound in units of its RMS. */
     static final double NOISE_RMS_FACTOR = 3.0;
     /** Figures whose noise reaches this fraction of the signal are refused. */
@@ -77,7 +96,13 @@ public final class SweepAnalyzer {
         int ns = spec.lengthFrames();
         int nr = response.length;
         Windows w = Windows.of(spec);
-        int n = Integer.highestOneBit(Math.max(2, nr + ns + w.linPre + w.linPost + 2) - 1) * 2;
+        long needed = (long) nr + ns + w.linPre + w.linPost + 2;
+        if (needed > MAX_FFT_LENGTH) {
+            throw new IllegalArgumentException(String.format(java.util.Locale.ROOT,
+                    "recording plus sweep (%d frames) exceed the %d frames one analysis can hold (%.0f s at %.0f Hz)",
+                    needed, MAX_FFT_LENGTH, MAX_FFT_LENGTH / fs, fs));
+        }
+        int n = Integer.highestOneBit((int) needed - 1) * 2;
 
         double[] inverse = inverseSpectrum(spec, n);
         double[] dResp = deconvolve(response, inverse, n);
@@ -129,11 +154,13 @@ public final class SweepAnalyzer {
             double phaseBound = Double.NaN;
             if (ny < MAX_NOISE_RATIO && nx < MAX_NOISE_RATIO) {
                 magDb = 20 * Math.log10(yAbs / xAbs);
-                magBound = 20 * Math.log10(Math.max((1 + ny) / (1 - nx), (1 + nx) / (1 - ny)));
+                boolean low = f < LOW_EDGE_FACTOR * spec.startHz();
+                magBound = 20 * Math.log10(Math.max((1 + ny) / (1 - nx), (1 + nx) / (1 - ny)))
+                        + (low ? MAGNITUDE_METHOD_DB_LOW : MAGNITUDE_METHOD_DB);
                 double re = (y[0] * x[0] + y[1] * x[1]);
                 double im = (y[1] * x[0] - y[0] * x[1]);
                 phaseDeg = Math.toDegrees(Math.atan2(im, re));
-                phaseBound = Math.toDegrees(Math.asin(ny) + Math.asin(nx));
+                phaseBound = Math.toDegrees(Math.asin(ny) + Math.asin(nx)) + (low ? PHASE_METHOD_DEG_LOW : PHASE_METHOD_DEG);
             }
             double[] hd = new double[4];
             double[] hdBound = new double[4];
@@ -151,7 +178,7 @@ public final class SweepAnalyzer {
                 double n1 = noiseAmplitude(dResp, n, noiseCenter, w.linPre, w.linPost, f, fs) / yAbs;
                 if (nh < MAX_NOISE_RATIO) {
                     hd[k] = 20 * Math.log10(hAbs / yAbs);
-                    hdBound[k] = 20 * Math.log10(Math.max((1 + nh) / (1 - n1), (1 + n1) / (1 - nh)));
+                    hdBound[k] = 20 * Math.log10(Math.max((1 + nh) / (1 - n1), (1 + n1) / (1 - nh))) + HARMONIC_METHOD_DB;
                 }
             }
             points.add(new SweepPoint(f, magDb, magBound, phaseDeg, phaseBound, hd[2], hdBound[2], hd[3], hdBound[3]));

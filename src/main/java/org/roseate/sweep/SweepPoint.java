@@ -6,14 +6,15 @@ package org.roseate.sweep;
  *
  * @param hz                the (fundamental) frequency, Hz
  * @param magnitudeDb       20·log10|H|, H = response/reference
- * @param magnitudeBoundDb  |error| of magnitudeDb from the measured noise floor is below this, dB
+ * @param magnitudeBoundDb  |error| of magnitudeDb is below this, dB: the measured noise floor plus the
+ *                          method's allowance (0.02 dB, 0.1 dB below 2.5·f₁)
  * @param phaseDeg          arg H in degrees, (−180, 180], reference and response windows aligned
  *                          on the reference's impulse
- * @param phaseBoundDeg     |error| of phaseDeg from the noise floor is below this, degrees
+ * @param phaseBoundDeg     |error| of phaseDeg is below this, degrees (noise plus 0.15°, 0.7° below 2.5·f₁)
  * @param harmonic2Db       2nd harmonic response at 2·hz relative to the fundamental response at
  *                          hz, dB (for a sine of this frequency: the 2nd harmonic's level re the
  *                          fundamental at the output)
- * @param harmonic2BoundDb  bound of harmonic2Db from the noise floor, dB
+ * @param harmonic2BoundDb  bound of harmonic2Db: noise plus the method's 0.5 dB, dB
  * @param harmonic3Db       as harmonic2Db for the 3rd harmonic at 3·hz
  * @param harmonic3BoundDb  bound of harmonic3Db, dB
  */

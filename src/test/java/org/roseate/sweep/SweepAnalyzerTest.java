@@ -68,13 +68,21 @@ class SweepAnalyzerTest {
             double expected = SweepFixtures.stored("magnitudeDb", p.hz());
             worst = Math.max(worst, Math.abs(p.magnitudeDb() - expected));
             assertEquals(expected, p.magnitudeDb(), 0.05, "at " + p.hz() + " Hz");
-            assertTrue(p.magnitudeBoundDb() < 0.05, "noise bound at " + p.hz() + " Hz: " + p.magnitudeBoundDb());
+            assertTrue(p.magnitudeBoundDb() < 0.05, "bound at " + p.hz() + " Hz: " + p.magnitudeBoundDb());
             double expectedPhase = SweepFixtures.stored("phaseDeg", p.hz()) - 360 * p.hz() * delay / FS;
             double diff = Math.IEEEremainder(p.phaseDeg() - expectedPhase, 360);
             assertEquals(0, diff, 0.5, "phase at " + p.hz() + " Hz");
             checked++;
         }
         assertEquals(200, checked, "24 points per octave from 50 Hz to 16 kHz: i = -103 .. 96");
+        // Over the whole grid, edges included, every stated bound holds.
+        for (SweepPoint p : r.points()) {
+            double magErr = Math.abs(p.magnitudeDb() - SweepFixtures.stored("magnitudeDb", p.hz()));
+            double phaseErr = Math.abs(Math.IEEEremainder(p.phaseDeg() - SweepFixtures.stored("phaseDeg", p.hz())
+                    + 360 * p.hz() * delay / FS, 360));
+            assertTrue(magErr <= p.magnitudeBoundDb(), "|H| error " + magErr + " > bound " + p.magnitudeBoundDb() + " at " + p.hz());
+            assertTrue(phaseErr <= p.phaseBoundDeg(), "phase error " + phaseErr + " > bound " + p.phaseBoundDeg() + " at " + p.hz());
+        }
         System.out.printf("known filter: worst |error| 50 Hz-16 kHz %.4f dB%n", worst);
     }
 
@@ -121,6 +129,7 @@ class SweepAnalyzerTest {
                 }
                 worst[k] = Math.max(worst[k], Math.abs(got - expected[k]));
                 assertEquals(expected[k], got, 0.5, "harmonic " + k + " at " + p.hz() + " Hz");
+                assertTrue(Math.abs(got - expected[k]) <= p.harmonicBoundDb(k), "stated bound at " + p.hz() + " Hz");
                 checked[k]++;
             }
         }
