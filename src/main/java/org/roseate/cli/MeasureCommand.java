@@ -40,6 +40,9 @@ final class MeasureCommand implements Callable<Integer> {
     @picocli.CommandLine.Mixin
     BandOptions bandOptions = new BandOptions();
 
+    @picocli.CommandLine.Mixin
+    SweepOptions sweep = new SweepOptions();
+
     @Parameters(index = "0", arity = "0..1", paramLabel = "FILE.wav", description = "the capture (or --live)")
     Path file;
 
@@ -113,6 +116,9 @@ final class MeasureCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        if (sweep.enabled()) {
+            return sweepMeasurement();
+        }
         if (live) {
             if (file != null) {
                 throw new UserInputException("measure: give a WAV file or --live, not both");
@@ -135,6 +141,37 @@ final class MeasureCommand implements Callable<Integer> {
                 }
             }
         }
+    }
+
+    /** {@code --sweep}: the exponential swept sine instead of noise, from a file or live. */
+    private Integer sweepMeasurement() {
+        String[] noiseOnly = {"--bank", "--plot", "--against", "--calibration", "--save-calibration", "--save-capture",
+            "--freqs", "--segment", "--volts-per-fs", "--range", "--bands", "--slope"};
+        for (String name : noiseOnly) {
+            if (spec.commandLine().getParseResult().hasMatchedOption(name)) {
+                throw new UserInputException(name + " does not apply to --sweep measurements");
+            }
+        }
+        if (live == (file != null)) {
+            throw new UserInputException(live ? "--live records its own capture; leave out " + file
+                    : "measure: name a WAV file, or record one with --live");
+        }
+        if (!transfer && referenceChannel != null) {
+            throw new UserInputException("--reference-channel applies to --transfer only");
+        }
+        int resp = (channel != null ? channel : transfer ? 2 : 1) - 1;
+        int ref = transfer ? (referenceChannel != null ? referenceChannel : 1) - 1 : -1;
+        if (transfer && channel == null && ref == 1) {
+            resp = 0;
+        }
+        PrintWriter err = spec.commandLine().getErr();
+        org.roseate.sweep.SweepResult r = SweepMeasurement.measure(file, sweep, live, resp, ref, outputDevice, device,
+                rateHz, levelDbfs, allowLoud, err);
+        err.flush();
+        PrintWriter out = spec.commandLine().getOut();
+        out.print(SweepMeasurement.format(r, format.name()));
+        out.flush();
+        return 0;
     }
 
     /** Refuses option combinations that mean nothing, before any recording or reading. */

@@ -11,7 +11,6 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.Locale;
-import java.util.concurrent.Callable;
 import java.util.concurrent.atomic.AtomicInteger;
 import org.roseate.audio.AudioDeviceException;
 import org.roseate.audio.CaptureEngine;
@@ -20,7 +19,6 @@ import org.roseate.audio.InputLine;
 import org.roseate.audio.OutputLine;
 import org.roseate.audio.PlaybackEngine;
 import org.roseate.audio.PlaybackSettings;
-import org.roseate.circuit.DesignException;
 import org.roseate.io.WavFormatException;
 import org.roseate.io.WavReader;
 import org.roseate.noise.FrameSource;
@@ -29,22 +27,12 @@ import org.roseate.sweep.SweepPoint;
 import org.roseate.sweep.SweepResult;
 import org.roseate.sweep.SweepSource;
 import org.roseate.sweep.SweepSpec;
-import picocli.CommandLine;
-import picocli.CommandLine.Command;
-import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
-import picocli.CommandLine.Spec;
 
 /**
- * The swept-sine path of {@code measure}, kept apart so it can be wired into the measure command:
+ * The swept-sine path of {@code measure}:
  * analysis of a capture file ({@link #fromFile}), a live play-and-record ({@link #recordLive}),
  * and the table, JSON or CSV output ({@link #format}).
- *
- * <p>{@link Standalone} runs it without the top-level command, with measure's option names
- * ({@code --live}, {@code --transfer}, {@code --channel}, {@code --reference-channel},
- * {@code --format}, {@code --device}, {@code --output-device}, {@code --rate}, {@code --level},
- * {@code --allow-loud}); it is not registered as a subcommand.
+ * {@code measure --sweep} ({@link MeasureCommand}) calls {@link #measure}.
  */
 public final class SweepMeasurement {
     /** Silence before the sweep in a live measurement: the playback engine's 1 s safety ramp plus margin. */
@@ -279,126 +267,38 @@ public final class SweepMeasurement {
     }
 
     /**
-     * {@code [CAPTURE.wav] --sweep …}: the sweep measurement with measure's option names, outside the
-     * top-level command until it is wired into {@code measure}. Run it with {@link #run}.
+     * The sweep path of {@code measure --sweep}: from a capture file or live (play the sweep and
+     * record it), then the deconvolution. Channels are 0-based; {@code referenceChannel} is −1 when
+     * there is none.
+     *
+     * @param levelDbfs with {@code live}: the sweep's RMS level (a full-scale sine reads 0 dBFS)
      */
-    @Command(name = "measure", mixinStandardHelpOptions = true,
-            description = "Transfer measurement with an exponential swept sine, from a capture file or live.")
-    public static final class Standalone implements Callable<Integer> {
-        @Parameters(arity = "0..1", paramLabel = "CAPTURE.wav", description = "a capture of the sweep (not with --live)")
-        Path file;
-
-        @Mixin
-        SweepOptions sweep = new SweepOptions();
-
-        @Option(names = "--live", description = "play the sweep and record it")
-        boolean live;
-
-        @Option(names = "--transfer", description = "two channels: a reference and a response")
-        boolean transfer;
-
-        @Option(names = "--channel", paramLabel = "N", description = "response channel, from 1 (default: 2 with --transfer, else 1)")
-        Integer channel;
-
-        @Option(names = "--reference-channel", paramLabel = "N", description = "with --transfer: the reference channel, from 1 (default 1)")
-        Integer referenceChannel;
-
-        @Option(names = "--device", paramLabel = "NAME|INDEX", description = "with --live: input device")
-        String device;
-
-        @Option(names = "--output-device", paramLabel = "NAME|INDEX", description = "with --live: output device")
-        String outputDevice;
-
-        @Option(names = "--rate", defaultValue = "48000", description = "with --live: sample rate in Hz (default: ${DEFAULT-VALUE})")
-        int rateHz;
-
-        @Option(names = "--level", defaultValue = "-20", paramLabel = "DBFS",
-                description = "with --live: the sweep's RMS level in dBFS (full-scale sine = 0 dBFS) (default: ${DEFAULT-VALUE})")
-        double levelDbfs;
-
-        @Option(names = "--allow-loud", description = "allow a sweep above " + PlayCommand.LOUD_DBFS + " dBFS")
-        boolean allowLoud;
-
-        @Option(names = "--format", defaultValue = "table", description = "table, json or csv (default: ${DEFAULT-VALUE})")
-        String format;
-
-        @Spec
-        CommandLine.Model.CommandSpec spec;
-
-        @Override
-        public Integer call() {
-            if (!sweep.enabled()) {
-                throw new UserInputException("this entry point measures with --sweep only");
-            }
-            checkFormat(format);
-            int resp = (channel != null ? channel : transfer ? 2 : 1) - 1;
-            int ref = transfer ? (referenceChannel != null ? referenceChannel : 1) - 1 : -1;
-            if (resp < 0 || (transfer && ref < 0)) {
-                throw new UserInputException("--channel and --reference-channel count from 1");
-            }
-            if (transfer && resp == ref) {
-                throw new UserInputException("--channel and --reference-channel are both " + (resp + 1)
-                        + "; the response and the reference need their own channels");
-            }
-            SweepResult r;
-            if (live) {
-                if (file != null) {
-                    throw new UserInputException("--live records its own capture; leave out " + file);
-                }
-                r = live(resp, ref);
-            } else {
-                if (file == null) {
-                    throw new UserInputException("name a capture file, or measure with --live");
-                }
-                r = fromFile(file, sweep, resp, ref);
-            }
-            PrintWriter out = spec.commandLine().getOut();
-            out.print(format(r, format));
-            out.flush();
-            return 0;
+    public static SweepResult measure(Path file, SweepOptions sweep, boolean live, int responseChannel,
+            int referenceChannel, String outputDevice, String inputDevice, int rateHz, double levelDbfs,
+            boolean allowLoud, PrintWriter status) {
+        if (responseChannel < 0 || referenceChannel < -1) {
+            throw new UserInputException("--channel and --reference-channel count from 1");
         }
-
-        private SweepResult live(int resp, int ref) {
-            if (!(levelDbfs <= 0)) {
-                throw new UserInputException(Numbers.f("--level %.1f dBFS RMS: a sweep's peak would pass full scale", levelDbfs));
-            }
-            if (levelDbfs > PlayCommand.LOUD_DBFS && !allowLoud) {
-                throw new UserInputException(Numbers.f("--level %.1f dBFS is loud; levels above %.0f dBFS need --allow-loud",
-                        levelDbfs, PlayCommand.LOUD_DBFS));
-            }
-            SweepSpec s = sweep.spec(rateHz);
-            PrintWriter status = spec.commandLine().getErr();
-            status.println(PlayCommand.CAUTION);
-            int inChannels = Math.max(resp, ref) + 1;
-            double[][] rec = recordLive(new SweepSource(s, peakForLevel(levelDbfs), 2, LEAD_SECONDS),
-                    outputDevice, device, rateHz, inChannels, recordingSeconds(s), status);
-            return analyze("live recording", s, ref >= 0 ? rec[ref] : null, rec[resp], sweep.pointsPerOctave());
+        if (responseChannel == referenceChannel) {
+            throw new UserInputException("--channel and --reference-channel are both " + (responseChannel + 1)
+                    + "; the response and the reference need their own channels");
         }
-    }
-
-    /** Runs {@link Standalone} with the project's error conventions (status 2 bad input, 3 device). */
-    public static int run(PrintWriter out, PrintWriter err, String... args) {
-        CommandLine cl = new CommandLine(new Standalone());
-        cl.setOut(out);
-        cl.setErr(err);
-        cl.setParameterExceptionHandler((ex, a) -> {
-            err.println("roseate: " + ex.getMessage());
-            return RoseateCommand.EXIT_BAD_INPUT;
-        });
-        cl.setExecutionExceptionHandler((ex, c, p) -> {
-            if (ex instanceof UserInputException || ex instanceof DesignException) {
-                err.println("roseate: " + ex.getMessage());
-                return RoseateCommand.EXIT_BAD_INPUT;
-            }
-            if (ex instanceof DeviceException) {
-                err.println("roseate: " + ex.getMessage());
-                return RoseateCommand.EXIT_DEVICE;
-            }
-            throw ex;
-        });
-        int code = cl.execute(args);
-        out.flush();
-        err.flush();
-        return code;
+        if (!live) {
+            return fromFile(file, sweep, responseChannel, referenceChannel);
+        }
+        if (!(levelDbfs <= 0)) {
+            throw new UserInputException(Numbers.f("--level %.1f dBFS RMS: a sweep's peak would pass full scale", levelDbfs));
+        }
+        if (levelDbfs > PlayCommand.LOUD_DBFS && !allowLoud) {
+            throw new UserInputException(Numbers.f("--level %.1f dBFS is loud; levels above %.0f dBFS need --allow-loud",
+                    levelDbfs, PlayCommand.LOUD_DBFS));
+        }
+        SweepSpec s = sweep.spec(rateHz);
+        status.println(PlayCommand.CAUTION);
+        int inChannels = Math.max(responseChannel, referenceChannel) + 1;
+        double[][] rec = recordLive(new SweepSource(s, peakForLevel(levelDbfs), 2, LEAD_SECONDS),
+                outputDevice, inputDevice, rateHz, inChannels, recordingSeconds(s), status);
+        return analyze("live recording", s, referenceChannel >= 0 ? rec[referenceChannel] : null,
+                rec[responseChannel], sweep.pointsPerOctave());
     }
 }

@@ -34,7 +34,10 @@ class SweepMeasurementTest {
     static Run run(String... args) {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
-        int status = SweepMeasurement.run(new PrintWriter(out), new PrintWriter(err), args);
+        String[] all = new String[args.length + 1];
+        all[0] = "measure";
+        System.arraycopy(args, 0, all, 1, args.length);
+        int status = RoseateCommand.run(new PrintWriter(out), new PrintWriter(err), all);
         return new Run(status, out.toString(), err.toString());
     }
 
