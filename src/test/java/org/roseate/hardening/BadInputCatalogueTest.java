@@ -118,6 +118,12 @@ class BadInputCatalogueTest {
         row("argument", "analyze --range 20k-20", 2, false, "--range:", "analyze", "@good.json", "--range", "20k-20");
         row("argument", "analyze --range abc", 2, false, "--range:", "analyze", "@good.json", "--range", "abc");
         row("argument", "analyze --bands fifth", 2, false, "--bands: expected octave or third, found 'fifth'", "analyze", "@good.json", "--bands", "fifth");
+        row("argument", "analyze --range 1-1e9 (beyond the tabulated bands)", 2, false, "--range: 1-1e9 reaches beyond the analysable range, 0.4000 Hz to 100.0 kHz", "analyze", "@good.json", "--range", "1-1e9");
+        row("argument", "fit --from with --branches", 2, false, "--from and --branches cannot be used together", "fit", "--from", "@good.json", "--branches", "4");
+        row("argument", "fit --hold a part that is not there", 2, false, "--hold: no part 'R9' in good.json", "fit", "--from", "@good.json", "--hold", "R9");
+        row("argument", "fit --gain-db without a frequency", 2, false, "--gain-db: expected a gain and a frequency such as 40@1k", "fit", "--gain-db", "40");
+        row("argument", "tolerance --against-nominal with --slope", 2, false, "--slope and --against-nominal cannot be used together", "tolerance", "@good.json", "--against-nominal", "--slope", "white");
+        row("argument", "tolerance --tolerance with an unknown key", 2, false, "--tolerance: unknown key 'Q7'", "tolerance", "@good.json", "--tolerance", "Q7=1%");
         row("argument", "unknown option", 2, true, "Unknown option: '--bogus'", "analyze", "@good.json", "--bogus");
         row("argument", "missing design file argument", 2, true, "Missing required parameter", "analyze");
         row("argument", "unknown subcommand", 2, true, "Unmatched argument at index 0: 'frobnicate'", "frobnicate");
