@@ -245,6 +245,11 @@ final class MeasureView {
         fromFile.setSelected(true);
     }
 
+    /** Selects the sound-card input (the default one) as the source. */
+    void useInput() {
+        fromInput.setSelected(true);
+    }
+
     void setMode(MeasureSetup.Mode m) {
         mode.setValue(m);
     }

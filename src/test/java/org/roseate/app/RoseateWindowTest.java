@@ -300,6 +300,11 @@ class RoseateWindowTest {
     }
 
     private void snapshot(String name) throws Exception {
+        snapshot(scene, name);
+    }
+
+    /** Writes a PNG of the scene under target/ui-snapshots/ and checks its size. */
+    static void snapshot(Scene scene, String name) throws Exception {
         Path png = SNAPSHOTS.resolve(name + ".png");
         WaitForAsyncUtils.waitForFxEvents();
         fxRun(() -> {
