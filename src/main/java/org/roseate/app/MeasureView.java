@@ -79,6 +79,7 @@ final class MeasureView {
     private final VBox transferBox;
     private final AtomicReference<MeasureOutcome> live = new AtomicReference<>();
     private final AnimationTimer poll;
+    private final TaskRunner.Slot work;
     private Path file;
     private Calibration calibration;
     private LiveMeasurement capture;
@@ -86,6 +87,7 @@ final class MeasureView {
 
     MeasureView(MainWindow window) {
         this.window = window;
+        this.work = window.tasks().slot("Measure");
         ToggleGroup g = new ToggleGroup();
         fromFile.setToggleGroup(g);
         fromInput.setToggleGroup(g);
@@ -282,7 +284,7 @@ final class MeasureView {
             start.setDisable(true);
             stopButton.setDisable(false);
             readout.setText("Measuring " + f.getFileName() + "…");
-            window.tasks().run("Measuring " + f.getFileName(), task, out -> {
+            work.run("Measuring " + f.getFileName(), task, out -> {
                 live.set(out);
                 start.setDisable(false);
                 stopButton.setDisable(true);
@@ -329,8 +331,8 @@ final class MeasureView {
             c.close();
             lastCapture = c;
         }
-        if (window.tasks().busy()) {
-            window.tasks().cancelCurrent();
+        if (work.busy()) {
+            work.cancel();
         }
         start.setDisable(false);
         stopButton.setDisable(true);
