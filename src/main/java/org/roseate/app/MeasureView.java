@@ -330,6 +330,9 @@ final class MeasureView {
             capture = null;
             c.close();
             lastCapture = c;
+            if (shown != null) {
+                readout.setText(describe(shown)); // "(stopped)", no longer "(running)"
+            }
         }
         if (work.busy()) {
             work.cancel();
@@ -350,8 +353,10 @@ final class MeasureView {
             }
             String problem = c.problem();
             if (problem != null) {
-                readout.setText(problem);
                 stop();
+                readout.setText(problem); // after the stop, so its own status line does not replace the failure
+                window.showStatus(problem);
+                return;
             }
         }
         MeasureOutcome o = live.get();
@@ -367,11 +372,19 @@ final class MeasureView {
         readout.setText(describe(o));
     }
 
+    /** "" for a finished file, " (running)" while capturing or measuring, " (stopped)" after Stop. */
+    private String state(MeasureOutcome o) {
+        if (o.complete()) {
+            return "";
+        }
+        return capture != null || work.busy() ? " (running)" : " (stopped)";
+    }
+
     private String describe(MeasureOutcome o) {
         if (o.noise() != null) {
             NoiseSourceResult n = o.noise();
             return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages, T_eff %.1f s, %.3g Hz bins. Slope %+.2f dB/octave "
-                    + "(target %+.2f); peak band deviation ±%.2f dB; levels in %s.", o.source(), o.complete() ? "" : " (running)",
+                    + "(target %+.2f); peak band deviation ±%.2f dB; levels in %s.", o.source(), state(o),
                     o.seconds(), n.density().averages(), n.density().effectiveDurationSeconds(), n.density().binWidthHz(),
                     n.slopeDbPerOctave(), n.target().dbPerOctave(), n.deviation().maxBandDeviationDb(),
                     n.density().unit().levelSymbol());
@@ -379,7 +392,7 @@ final class MeasureView {
         TransferResult t = o.transfer();
         long trusted = t.points().stream().filter(TransferResult.Point::trusted).count();
         return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages%s. Slope %+.2f dB/octave; peak band deviation ±%.2f dB; "
-                + "%d of %d points with γ² ≥ %.2f.", o.source(), o.complete() ? "" : " (running)", o.seconds(),
+                + "%d of %d points with γ² ≥ %.2f.", o.source(), state(o), o.seconds(),
                 t.estimate().averages(), calibration != null ? ", calibrated" : "", t.slopeDbPerOctave(),
                 t.deviation().maxBandDeviationDb(), trusted, t.points().size(), t.coherenceThreshold());
     }

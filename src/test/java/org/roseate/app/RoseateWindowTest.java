@@ -22,8 +22,6 @@ import javax.imageio.ImageIO;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
-import org.roseate.circuit.DesignReader;
-import org.roseate.circuit.DesignWriter;
 import org.roseate.io.SampleEncoding;
 import org.roseate.io.WavFormat;
 import org.roseate.io.WavWriter;
@@ -110,7 +108,7 @@ class RoseateWindowTest {
         }
         assertNotEquals(bandsBefore[0], fx(() -> design().bandChart().values())[0] + 1e-300, "band bars are redrawn");
         String text = fx(() -> design().editor().getText());
-        assertEquals(DesignWriter.toJson(DesignReader.parse(text, "t")), text, "the text is DesignWriter's");
+        assertEquals(Files.readString(preset).replace("R1(47k)", "R1(51k)"), text, "only the value's characters change");
 
         // Ctrl+Z takes the step back, Ctrl+Shift+Z redoes it
         FxRobot robot = new FxRobot();
@@ -153,8 +151,8 @@ class RoseateWindowTest {
         await(() -> !design().document().dirty());
         fxRun(() -> design().flushIo());
         String saved = Files.readString(preset);
-        assertEquals(DesignWriter.toJson(DesignReader.read(preset)), saved, "the file holds DesignWriter's output");
-        assertTrue(saved.contains("C2(36n)"));
+        assertEquals(Files.readString(PROJECT_PRESETS.resolve("bench-pink.json")).replace("C2(39n)", "C2(36n)"), saved,
+                "the file is the original with one value changed");
         assertFalse(Files.exists(autosave), "saving removes the autosave");
         try (Stream<Path> s = Files.list(preset.getParent())) {
             assertEquals(List.of(preset), s.toList(), "no temporary file is left");
