@@ -12,6 +12,7 @@ import javafx.scene.Scene;
 import javafx.scene.control.TableColumn;
 import javafx.scene.input.KeyCode;
 import javafx.stage.Stage;
+import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
@@ -45,6 +46,15 @@ class FileRespectingEditTest {
     MainWindow window;
     Scene scene;
     Path file;
+
+    /** No autosave write may land in the temporary folder while JUnit removes it. */
+    @AfterEach
+    void stopAutosave() throws Exception {
+        RoseateWindowTest.fxRun(() -> {
+            window.design().flushIo();
+            window.design().shutdown();
+        });
+    }
 
     @Start
     void start(Stage stage) throws Exception {

@@ -19,6 +19,7 @@ import javafx.scene.Scene;
 import javafx.scene.input.KeyCode;
 import javafx.stage.Stage;
 import javax.imageio.ImageIO;
+import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
@@ -48,6 +49,15 @@ class RoseateWindowTest {
     MainWindow window;
     Scene scene;
     Path preset;
+
+    /** No autosave write may land in the temporary folder while JUnit removes it. */
+    @AfterEach
+    void stopAutosave() throws Exception {
+        RoseateWindowTest.fxRun(() -> {
+            window.design().flushIo();
+            window.design().shutdown();
+        });
+    }
 
     @Start
     void start(Stage stage) throws Exception {
