@@ -50,14 +50,14 @@ final class BandChart extends BarChart<String, Number> {
         ObservableData.setBars(bars, labels, values);
         this.whiskersDb = whiskers == null ? null : whiskers.clone();
         this.markersDb = markers == null ? null : markers.clone();
-        requestChartLayout();
+        ObservableData.redraw(this);
     }
 
     void clear() {
         bars.getData().clear();
         whiskersDb = null;
         markersDb = null;
-        requestChartLayout();
+        ObservableData.redraw(this);
     }
 
     /** The values shown, in band order (for readouts and tests). */

@@ -141,7 +141,8 @@ final class CompareView {
                 return FileMeasurement.run(p, setup, f -> updateProgress(f, 1), this::isCancelled, o -> { });
             }
         };
-        window.tasks().run("Analysing " + p.getFileName(), task,
+        // one slot per capture: adding a second capture never cancels the first, nor another view's work
+        window.tasks().slot("Compare " + p.getFileName()).run("Analysing " + p.getFileName(), task,
                 out -> entries.add(CompareEntry.ofCapture(p.getFileName().toString(), out, s.table())),
                 msg -> {
                     info.setText(msg);

@@ -49,6 +49,11 @@ final class DesignDocument {
         return file == null ? "editor" : file.getFileName().toString();
     }
 
+    /** The text as last saved or opened. */
+    String savedText() {
+        return savedText;
+    }
+
     boolean dirty() {
         return !text.equals(savedText);
     }

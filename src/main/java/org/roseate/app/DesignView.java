@@ -45,12 +45,12 @@ import javafx.util.Duration;
 import org.roseate.bands.BandFraction;
 import org.roseate.circuit.Component;
 import org.roseate.circuit.Design;
-import org.roseate.circuit.DesignWriter;
 import org.roseate.compare.BandReading;
 import org.roseate.compare.FrequencyRange;
 import org.roseate.compare.TargetSlope;
 import org.roseate.model.CircuitModel;
 import org.roseate.value.ESeries;
+import org.roseate.value.EngineeringValue;
 
 /**
  * The design view: the design file's JSON in an editor, read and analysed as you type (150 ms
@@ -75,6 +75,7 @@ final class DesignView {
     private final ObjectProperty<TextSpan> errorSpan = new SimpleObjectProperty<>();
 
     private final TextArea editor = new TextArea();
+    private final ErrorMarks errorMarks = new ErrorMarks(editor);
     private final Label status = new Label();
     private final Button showError = new Button("Show");
     private final Label fileLabel = new Label();
@@ -142,6 +143,7 @@ final class DesignView {
             }
         });
         showError.setOnAction(e -> selectError());
+        errorSpan.addListener((o, a, b) -> errorMarks.show(b));
         showError.setVisible(false);
         setText(doc.text());
         analyseNow(doc.text());
@@ -208,8 +210,8 @@ final class DesignView {
         statusRow.setAlignment(Pos.CENTER_LEFT);
         Label editorTitle = new Label("Design file (JSON)");
         editorTitle.getStyleClass().add("section-title");
-        VBox editorBox = new VBox(6, editorTitle, editor, statusRow);
-        VBox.setVgrow(editor, Priority.ALWAYS);
+        VBox editorBox = new VBox(6, editorTitle, errorMarks.node(), statusRow);
+        VBox.setVgrow(errorMarks.node(), Priority.ALWAYS);
 
         Label tableTitle = new Label("Components");
         tableTitle.getStyleClass().add("section-title");
@@ -265,6 +267,9 @@ final class DesignView {
     private void buildTable() {
         TableColumn<ComponentRow, String> part = column("Part", ComponentRow::designator, 60);
         TableColumn<ComponentRow, String> value = column("Value", ComponentRow::valueText, 80);
+        value.setCellFactory(javafx.scene.control.cell.TextFieldTableCell.forTableColumn());
+        value.setEditable(true);
+        value.setOnEditCommit(e -> valueTyped(e.getRowValue().designator(), e.getNewValue()));
         TableColumn<ComponentRow, String> tol = column("Tolerance", ComponentRow::toleranceText, 80);
         TableColumn<ComponentRow, String> nearest = new TableColumn<>("Nearest in series");
         nearest.setCellValueFactory(c -> new SimpleStringProperty(c.getValue().nearestText()));
@@ -304,9 +309,16 @@ final class DesignView {
         steps.setPrefWidth(90);
         steps.setSortable(false);
         table.getColumns().setAll(List.of(part, value, tol, nearest, steps));
+        for (TableColumn<ComponentRow, ?> c : List.of(part, tol, nearest, steps)) {
+            c.setEditable(false);
+        }
+        table.setEditable(true);
         table.setColumnResizePolicy(TableView.CONSTRAINED_RESIZE_POLICY_FLEX_LAST_COLUMN);
         table.setPlaceholder(new Label("The components appear here once the design reads without error."));
         table.setOnKeyPressed(e -> {
+            if (table.getEditingCell() != null) {
+                return;
+            }
             if (e.getCode() == KeyCode.PLUS || e.getCode() == KeyCode.ADD || e.getCode() == KeyCode.EQUALS) {
                 stepSelected(true);
                 e.consume();
@@ -366,20 +378,6 @@ final class DesignView {
         });
     }
 
-    private void analyseDesign(Design d, String text) {
-        long gen = generation.incrementAndGet();
-        String source = doc.sourceName();
-        AnalysisSettings s = window.settings();
-        analysis.submit(() -> {
-            DesignOutcome out = DesignOutcome.of(d, text, source, s);
-            Platform.runLater(() -> {
-                if (generation.get() == gen) {
-                    apply(out);
-                }
-            });
-        });
-    }
-
     private void apply(DesignOutcome out) {
         outcome.set(out);
         editor.getStyleClass().remove("has-error");
@@ -387,8 +385,7 @@ final class DesignView {
             editor.getStyleClass().add("has-error");
             TextSpan span = out.errorSpan().orElse(null);
             errorSpan.set(span);
-            status.setText((span == null ? "" : "Line " + span.line() + ", column " + span.column() + " — ")
-                    + out.error().getMessage());
+            status.setText(ErrorLocator.placed(out.error().getMessage(), doc.sourceName(), span));
             status.getStyleClass().setAll("label", "design-status", "error");
             showError.setVisible(span != null);
             if (span != null && !editor.isFocused()) {
@@ -499,13 +496,46 @@ final class DesignView {
 
     private void setValue(String designator, double value) {
         DesignOutcome out = outcome.get();
-        Design d = out.design().withValue(designator, value);
-        String text = DesignWriter.toJson(d);
-        debounce.stop();
+        out.design().component(designator).ifPresent(c -> setValueText(designator, EngineeringValue.format(value, c.kind())));
+    }
+
+    /**
+     * Replaces the characters of one component's value in the text with {@code valueText} and
+     * nothing else (see {@link ValueSpans}); refuses, with a status line, when the value is not
+     * written in exactly one place.
+     */
+    void setValueText(String designator, String valueText) {
+        commitPendingTyping();
+        Optional<String> edited = ValueSpans.replace(doc.text(), designator, valueText);
+        if (edited.isEmpty()) {
+            window.showStatus(designator + ": its value is not written in exactly one place as " + designator
+                    + "(value); edit it in the text.");
+            return;
+        }
+        String text = edited.get();
         doc.edit(text);
         setText(text);
-        analyseDesign(d, text);
+        analyseNow(text);
         updateFileLabel();
+    }
+
+    /** A value typed into the table: checked as a value of the part's kind, then written into the text. */
+    private void valueTyped(String designator, String typed) {
+        DesignOutcome out = outcome.get();
+        Optional<Component> c = out == null || !out.ok() ? Optional.empty() : out.design().component(designator);
+        if (c.isEmpty()) {
+            table.refresh();
+            return;
+        }
+        String text = typed == null ? "" : typed.strip();
+        try {
+            EngineeringValue.parse(text, c.get().kind());
+        } catch (IllegalArgumentException e) {
+            window.showStatus(designator + ": " + e.getMessage());
+            table.refresh();
+            return;
+        }
+        setValueText(designator, text);
     }
 
     // ---- undo, files, autosave ----
@@ -570,7 +600,7 @@ final class DesignView {
                 doc.edit(pending.get());
                 setText(pending.get());
             } else if (pending.isPresent()) {
-                doc.discardAutosave();
+                removeAutosave();
             }
         } catch (IOException e) {
             window.showStatus("Autosave of " + file.getFileName() + " could not be read: " + e.getMessage());
@@ -625,22 +655,54 @@ final class DesignView {
             case SAVE:
                 return save();
             case DISCARD:
-                try {
-                    doc.discardAutosave();
-                } catch (IOException e) {
-                    window.showStatus("Could not remove the autosave: " + e.getMessage());
-                }
+                discardEdits();
                 return true;
             default:
                 return false;
         }
     }
 
-    /** Writes unsaved edits beside the file (on the autosave thread). */
+    /**
+     * Drops the unsaved edits: the text goes back to the file's (one undo step brings the edits back
+     * on purpose), and the autosave is removed on the autosave thread, after any write still queued
+     * there, so no later write can bring the discarded edits back.
+     */
+    private void discardEdits() {
+        if (doc.dirty() && doc.edit(doc.savedText())) {
+            setText(doc.text());
+            analyseNow(doc.text());
+            updateFileLabel();
+        }
+        removeAutosave();
+    }
+
+    private void removeAutosave() {
+        Optional<Path> f = doc.file();
+        if (f.isEmpty()) {
+            return;
+        }
+        Path target = DesignDocument.autosaveOf(f.get());
+        io.submit(() -> {
+            try {
+                Files.deleteIfExists(target);
+            } catch (IOException e) {
+                Platform.runLater(() -> window.showStatus("Could not remove the autosave " + target + ": " + e.getMessage()));
+            }
+        });
+    }
+
+    /**
+     * Writes unsaved edits beside the file (on the autosave thread); with nothing unsaved (edits undone
+     * or discarded) removes the autosave instead, so it never offers back text the user dropped.
+     */
     void autosaveNow() {
         commitPendingTyping();
         Optional<Path> f = doc.file();
-        if (f.isEmpty() || !doc.dirty()) {
+        if (f.isEmpty()) {
+            return;
+        }
+        if (!doc.dirty()) {
+            removeAutosave();
             return;
         }
         String text = doc.text();
@@ -720,6 +782,10 @@ final class DesignView {
 
     BandChart bandChart() {
         return bandChart;
+    }
+
+    ErrorMarks errorMarks() {
+        return errorMarks;
     }
 
     LineChart<Number, Number> responseChart() {

@@ -163,4 +163,25 @@ final class ErrorLocator {
         }
         return Math.min(text.length(), offset + Math.max(0, column - 1));
     }
+
+    /** A network error's own place: "stage 1 feedback, column 32: ". */
+    private static final Pattern NETWORK_PLACE = Pattern.compile("^stage \\d+ [A-Za-z]+, column \\d+: ");
+    /** Invalid JSON's own place: " at line 3, column 7". */
+    private static final Pattern JSON_PLACE = Pattern.compile(" at line \\d+, column \\d+");
+
+    /**
+     * The message with one place only: "SOURCE, line L, column C: what", the place being the
+     * span the editor marks; the message's own place (stage, role and column inside the network
+     * expression, or the JSON parser's line and column) is dropped because it says the same thing
+     * in other words. Without a span the message is returned as it is.
+     */
+    static String placed(String message, String source, TextSpan span) {
+        if (span == null || message == null) {
+            return message;
+        }
+        String what = message.startsWith(source + ": ") ? message.substring(source.length() + 2) : message;
+        what = NETWORK_PLACE.matcher(what).replaceFirst("");
+        what = JSON_PLACE.matcher(what).replaceFirst("");
+        return source + ", line " + span.line() + ", column " + span.column() + ": " + what;
+    }
 }

@@ -453,8 +453,10 @@ final class ListenView {
         BandMeter m = bandMeter;
         BandMeter.Snapshot s = m == null ? null : m.latest();
         if (engine != null && engine.failure() != null) {
-            info.setText("Playback ended: " + engine.failure().getMessage());
+            String failure = "Playback ended: " + engine.failure().getMessage();
             stop();
+            info.setText(failure); // after the stop, so its "Stopped after …" does not replace the failure
+            window.showStatus(failure);
             return;
         }
         if (s == null || s.sequence() == shownSequence) {

@@ -50,6 +50,7 @@ final class MainWindow {
     MainWindow(Prompts prompts, Path workingDir) {
         this.prompts = Objects.requireNonNull(prompts, "prompts");
         this.workingDir = workingDir;
+        FftThreads.useDaemonPool();
     }
 
     /** Builds the views into {@code stage}, opens the preset and shows the window. */

@@ -81,6 +81,7 @@ final class MeasureView {
     private final VBox transferBox;
     private final AtomicReference<MeasureResult> live = new AtomicReference<>();
     private final AnimationTimer poll;
+    private final TaskRunner.Slot work;
     private Path file;
     private Calibration calibration;
     private LiveMeasurement capture;
@@ -88,6 +89,7 @@ final class MeasureView {
 
     MeasureView(MainWindow window) {
         this.window = window;
+        this.work = window.tasks().slot("Measure");
         ToggleGroup g = new ToggleGroup();
         fromFile.setToggleGroup(g);
         fromInput.setToggleGroup(g);
@@ -251,6 +253,11 @@ final class MeasureView {
         fromFile.setSelected(true);
     }
 
+    /** Selects the sound-card input (the default one) as the source. */
+    void useInput() {
+        fromInput.setSelected(true);
+    }
+
     void setMode(MeasureMode m) {
         mode.setValue(m);
     }
@@ -284,7 +291,7 @@ final class MeasureView {
             start.setDisable(true);
             stopButton.setDisable(false);
             readout.setText("Measuring " + f.getFileName() + "…");
-            window.tasks().run("Measuring " + f.getFileName(), task, out -> {
+            work.run("Measuring " + f.getFileName(), task, out -> {
                 live.set(out);
                 start.setDisable(false);
                 stopButton.setDisable(true);
@@ -330,9 +337,12 @@ final class MeasureView {
             capture = null;
             c.close();
             lastCapture = c;
+            if (shown != null) {
+                readout.setText(describe(shown)); // "(stopped)", no longer "(running)"
+            }
         }
-        if (window.tasks().busy()) {
-            window.tasks().cancelCurrent();
+        if (work.busy()) {
+            work.cancel();
         }
         start.setDisable(false);
         stopButton.setDisable(true);
@@ -350,8 +360,10 @@ final class MeasureView {
             }
             String problem = c.problem();
             if (problem != null) {
-                readout.setText(problem);
                 stop();
+                readout.setText(problem); // after the stop, so its own status line does not replace the failure
+                window.showStatus(problem);
+                return;
             }
         }
         MeasureResult o = live.get();
@@ -367,6 +379,14 @@ final class MeasureView {
         readout.setText(describe(o));
     }
 
+    /** "" for a finished file, " (running)" while capturing or measuring, " (stopped)" after Stop. */
+    private String state(MeasureResult o) {
+        if (o.complete()) {
+            return "";
+        }
+        return capture != null || work.busy() ? " (running)" : " (stopped)";
+    }
+
     private String describe(MeasureResult o) {
         String clip = o.clippedSamples() > 0 ? String.format(Locale.ROOT, " %d clipped or flat-topped samples.", o.clippedSamples()) : "";
         String warn = o.warnings().isEmpty() ? "" : " " + o.warnings().size() + " warning" + (o.warnings().size() == 1 ? "" : "s")
@@ -374,7 +394,7 @@ final class MeasureView {
         if (o.mode() == MeasureMode.NOISE_SOURCE) {
             return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages, T_eff %.1f s, %.3g Hz bins, %s. Slope %+.2f ± %.2f "
                     + "dB/octave (target %+.2f); peak band deviation %.2f ± %.2f dB; levels in %s; RMS %.1f dBFS, DC %+.2g FS.%s%s",
-                    org.roseate.measure.MeasureTable.displayName(o.source()), o.complete() ? "" : " (running)",
+                    org.roseate.measure.MeasureTable.displayName(o.source()), state(o),
                     o.secondsAnalysed(), o.averages(), o.effectiveSeconds(), o.resolutionHz(), o.request().reader(),
                     o.slopeDbPerOctave().value(), o.slopeDbPerOctave().uncertainty(), o.request().target().dbPerOctave(),
                     o.maxBandDeviationDb().value(), o.maxBandDeviationDb().uncertainty(), o.levelUnit(),
@@ -384,7 +404,7 @@ final class MeasureView {
         long bandsTrusted = o.bands().stream().filter(BandResult::trusted).count();
         return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages%s. Slope %+.2f ± %.2f dB/octave; peak band deviation "
                 + "%.2f ± %.2f dB; %d of %d bands and %d of %d points with γ² ≥ %.2f; levels are gain in dB re 1.%s%s",
-                org.roseate.measure.MeasureTable.displayName(o.source()), o.complete() ? "" : " (running)",
+                org.roseate.measure.MeasureTable.displayName(o.source()), state(o),
                 o.secondsAnalysed(), o.averages(), calibration != null ? ", calibrated" : "", o.slopeDbPerOctave().value(),
                 o.slopeDbPerOctave().uncertainty(), o.maxBandDeviationDb().value(), o.maxBandDeviationDb().uncertainty(),
                 bandsTrusted, o.bands().size(), trusted, o.points().size(), o.request().coherenceThreshold(), clip, warn);

@@ -105,4 +105,24 @@ class ErrorLocatorTest {
         assertTrue(o.ok(), () -> o.error().getMessage());
         assertEquals(31, o.curves().bands().size()); // IEC 61260-1: 31 third-octave bands from 20 Hz to 20 kHz
     }
+
+    @Test
+    void theStatusNamesOnePlace() {
+        String text = GOOD.replace("R3(150k)", "R3(15kk0)");
+        DesignOutcome o = read(text);
+        TextSpan s = o.errorSpan().orElseThrow();
+        String line = ErrorLocator.placed(o.error().getMessage(), "editor", s);
+        assertEquals("editor, line " + s.line() + ", column " + s.column() + ": expected a value such as 4k7 or 22n, found '15kk0'",
+                line);
+    }
+
+    @Test
+    void invalidJsonKeepsOnlyTheMarkedPlace() {
+        String text = GOOD.replaceFirst("\"name\":", "\"name\"");
+        DesignOutcome o = read(text);
+        TextSpan s = o.errorSpan().orElseThrow();
+        String line = ErrorLocator.placed(o.error().getMessage(), "editor", s);
+        assertTrue(line.startsWith("editor, line " + s.line() + ", column " + s.column() + ": invalid JSON: "), line);
+        assertEquals(1, line.split("line \\d+, column \\d+", -1).length - 1, line);
+    }
 }

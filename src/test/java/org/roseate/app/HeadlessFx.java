@@ -16,6 +16,11 @@ public final class HeadlessFx implements BeforeAllCallback {
 
     /** Sets the Monocle properties once, if no display is present. */
     static synchronized void activate() {
+        // Building the window takes a few seconds on a loaded CI machine (2 cores shared with other
+        // builds); TestFX's own default wait for the start method is shorter than that can take.
+        if (System.getProperty("testfx.setup.timeout") == null) {
+            System.setProperty("testfx.setup.timeout", "120000");
+        }
         if (System.getenv("DISPLAY") != null && !Boolean.getBoolean("roseate.headless")) {
             return;
         }

@@ -19,11 +19,10 @@ import javafx.scene.Scene;
 import javafx.scene.input.KeyCode;
 import javafx.stage.Stage;
 import javax.imageio.ImageIO;
+import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
-import org.roseate.circuit.DesignReader;
-import org.roseate.circuit.DesignWriter;
 import org.roseate.io.SampleEncoding;
 import org.roseate.io.WavFormat;
 import org.roseate.io.WavWriter;
@@ -50,6 +49,15 @@ class RoseateWindowTest {
     MainWindow window;
     Scene scene;
     Path preset;
+
+    /** No autosave write may land in the temporary folder while JUnit removes it. */
+    @AfterEach
+    void stopAutosave() throws Exception {
+        RoseateWindowTest.fxRun(() -> {
+            window.design().flushIo();
+            window.design().shutdown();
+        });
+    }
 
     @Start
     void start(Stage stage) throws Exception {
@@ -110,7 +118,7 @@ class RoseateWindowTest {
         }
         assertNotEquals(bandsBefore[0], fx(() -> design().bandChart().values())[0] + 1e-300, "band bars are redrawn");
         String text = fx(() -> design().editor().getText());
-        assertEquals(DesignWriter.toJson(DesignReader.parse(text, "t")), text, "the text is DesignWriter's");
+        assertEquals(Files.readString(preset).replace("R1(47k)", "R1(51k)"), text, "only the value's characters change");
 
         // Ctrl+Z takes the step back, Ctrl+Shift+Z redoes it
         FxRobot robot = new FxRobot();
@@ -128,11 +136,11 @@ class RoseateWindowTest {
         fxRun(() -> design().editor().setText(bad));
         await(() -> design().errorSpanProperty().get() != null);
         String status = fx(() -> design().status().getText());
-        assertTrue(status.contains("bench-pink.json: stage 1 feedback, column"), status);
-        assertTrue(status.contains("expected a value such as 4k7 or 22n, found '1kk6'"), status);
         TextSpan span = fx(() -> design().errorSpanProperty().get());
         assertEquals(bad.indexOf("1kk6"), span.start());
-        assertTrue(status.startsWith("Line " + span.line() + ", column " + span.column()), status);
+        // one place per message: the marked span's line and column, not also the network's own column
+        assertEquals("bench-pink.json, line " + span.line() + ", column " + span.column()
+                + ": expected a value such as 4k7 or 22n, found '1kk6'", status);
         fxRun(() -> design().selectError());
         assertEquals("1kk6", fx(() -> design().editor().getSelectedText()));
         assertTrue(fx(() -> design().editor().getStyleClass().contains("has-error")));
@@ -153,8 +161,8 @@ class RoseateWindowTest {
         await(() -> !design().document().dirty());
         fxRun(() -> design().flushIo());
         String saved = Files.readString(preset);
-        assertEquals(DesignWriter.toJson(DesignReader.read(preset)), saved, "the file holds DesignWriter's output");
-        assertTrue(saved.contains("C2(36n)"));
+        assertEquals(Files.readString(PROJECT_PRESETS.resolve("bench-pink.json")).replace("C2(39n)", "C2(36n)"), saved,
+                "the file is the original with one value changed");
         assertFalse(Files.exists(autosave), "saving removes the autosave");
         try (Stream<Path> s = Files.list(preset.getParent())) {
             assertEquals(List.of(preset), s.toList(), "no temporary file is left");
@@ -300,6 +308,11 @@ class RoseateWindowTest {
     }
 
     private void snapshot(String name) throws Exception {
+        snapshot(scene, name);
+    }
+
+    /** Writes a PNG of the scene under target/ui-snapshots/ and checks its size. */
+    static void snapshot(Scene scene, String name) throws Exception {
         Path png = SNAPSHOTS.resolve(name + ".png");
         WaitForAsyncUtils.waitForFxEvents();
         fxRun(() -> {
