@@ -92,4 +92,35 @@ class NodalModelTest {
         assertEquals(q, poles.get(0).q(), 1e-6 * q);
         assertEquals(1.0, m.response(0.01).abs(), 1e-6);
     }
+
+    /**
+     * The README's table of second-order sections states f0 and Q for each example; each row is
+     * read from README.md, solved, and its stated figures must be the model's pole pair rounded as
+     * printed (so the table cannot drift from the program).
+     */
+    @Test
+    void readmeSectionTableIsTrue() throws Exception {
+        java.util.regex.Pattern row = java.util.regex.Pattern.compile(
+                "^\\| [^|]+ \\| `(\\{.*\\})`, `(\\{.*\\})` \\| ([0-9.]+) (k?)Hz, ([0-9.]+) \\|$");
+        int rows = 0;
+        for (String line : Files.readAllLines(Path.of("README.md"))) {
+            java.util.regex.Matcher m = row.matcher(line);
+            if (!m.matches()) {
+                continue;
+            }
+            rows++;
+            CircuitModel c = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\", \"branches\": "
+                    + m.group(1) + ", \"opamps\": " + m.group(2) + "}");
+            List<Root> pair = c.poles().stream().filter(r -> !r.isReal()).toList();
+            assertEquals(1, pair.size(), line);
+            String f0 = m.group(3);
+            double scale = m.group(4).isEmpty() ? 1 : 1000;
+            int decimals = f0.contains(".") ? f0.length() - f0.indexOf('.') - 1 : 0;
+            assertEquals(Double.parseDouble(f0), pair.get(0).hz() / scale, 0.5 * Math.pow(10, -decimals) + 1e-12, line);
+            String q = m.group(5);
+            int qDecimals = q.length() - q.indexOf('.') - 1;
+            assertEquals(Double.parseDouble(q), pair.get(0).q(), 0.5 * Math.pow(10, -qDecimals) + 1e-12, line);
+        }
+        assertEquals(4, rows, "the README's four second-order sections");
+    }
 }
