@@ -123,4 +123,36 @@ class NodalModelTest {
         }
         assertEquals(4, rows, "the README's four second-order sections");
     }
+
+    /**
+     * The adjoint API for noise budgets, against circuit-theory results (common practice, any
+     * circuits text): a current into the middle of a divider R1 (from the driven input) and R2 sees
+     * R1 ‖ R2; a voltage in series with the plus input of an inverting or non-inverting stage sees
+     * the noise gain 1 + Rf/Rg; a branch's impedance is its network's.
+     */
+    @Test
+    void adjointTransfersMatchCircuitTheory() {
+        CircuitModel div = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
+                + " \"branches\": {\"in out\": \"R1(10k)\", \"out gnd\": \"R2(30k)\"}}");
+        NodalModel m = div.stages().get(0).nodal().orElseThrow();
+        NodalModel.Solution s = m.solve(1000);
+        // 1e-12 relative: one small LU in double precision.
+        assertEquals(7500, s.currentToOutputOhms("out", "gnd").re(), 7500 * 1e-12);
+        assertEquals(0, s.currentToOutputOhms("out", "gnd").im(), 1e-9);
+        assertEquals(0, s.currentToOutputOhms("in", "gnd").abs(), 1e-12, "the source holds the input node");
+        assertEquals(0.75, s.output().re(), 1e-12);
+        CircuitModel inv = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
+                + " \"branches\": {\"in m\": \"R1(10k)\", \"m out\": \"R2(47k)\"},"
+                + " \"opamps\": {\"U1\": {\"plus\": \"gnd\", \"minus\": \"m\", \"output\": \"out\"}}}");
+        NodalModel.Solution si = inv.stages().get(0).nodal().orElseThrow().solve(1000);
+        assertEquals(1 + 47.0 / 10, si.opampPlusVoltageToOutput("U1").re(), 1e-12 * 5.7);
+        assertEquals(-4.7, si.output().re(), 1e-12 * 4.7);
+        // A current into the inverting node flows through R2 only: v_out = −R2·J.
+        assertEquals(-47e3, si.currentToOutputOhms("m", "gnd").re(), 47e3 * 1e-12);
+        NodalModel lad = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
+                + " \"branches\": {\"in out\": \"R1(10k)\", \"out gnd\": \"R2(1k) + C1(1u)\"}}").stages().get(0).nodal().orElseThrow();
+        Complex z = lad.branchImpedance("out gnd", 100);
+        assertEquals(1000, z.re(), 1e-9);
+        assertEquals(-1 / (2 * Math.PI * 100 * 1e-6), z.im(), 1e-9);
+    }
 }
