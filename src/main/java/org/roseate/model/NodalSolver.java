@@ -35,9 +35,9 @@ public final class NodalSolver {
     /** Admittances are scaled by this resistance: 10 kΩ (common practice for audio RC work). */
     public static final double REFERENCE_OHMS = 1e4;
     /** Marks a terminal on {@code gnd}. */
-    static final int GROUND = -1;
+    public static final int GROUND = -1;
     /** Marks a terminal on the driven input node. */
-    static final int INPUT = -2;
+    public static final int INPUT = -2;
 
     private final int size;
     private final int nodeCount;
@@ -125,7 +125,7 @@ public final class NodalSolver {
     }
 
     /** Index of a node's unknown; {@value #GROUND} for gnd, {@value #INPUT} for the input; null if unknown. */
-    Integer nodeIndex(String name) {
+    public Integer nodeIndex(String name) {
         return nodeIndex.get(name);
     }
 

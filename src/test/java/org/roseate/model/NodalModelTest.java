@@ -149,6 +149,11 @@ class NodalModelTest {
         assertEquals(-4.7, si.output().re(), 1e-12 * 4.7);
         // A current into the inverting node flows through R2 only: v_out = −R2·J.
         assertEquals(-47e3, si.currentToOutputOhms("m", "gnd").re(), 47e3 * 1e-12);
+        NodalModel im = inv.stages().get(0).nodal().orElseThrow();
+        NodalModel.Workspace w = im.workspace();
+        im.solveWithAdjoint(1000, w);
+        int mi = im.solver().nodeIndex("m");
+        assertEquals(-47e3, NodalSolver.REFERENCE_OHMS * w.nodal().adjRe[mi], 47e3 * 1e-12, "the workspace form agrees");
         NodalModel lad = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
                 + " \"branches\": {\"in out\": \"R1(10k)\", \"out gnd\": \"R2(1k) + C1(1u)\"}}").stages().get(0).nodal().orElseThrow();
         Complex z = lad.branchImpedance("out gnd", 100);
