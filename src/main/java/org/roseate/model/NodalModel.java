@@ -172,6 +172,17 @@ public final class NodalModel {
         return new Complex(z[0], z[1]);
     }
 
+    /**
+     * The allocation-free form of {@link #solve(double)} for loops over many frequencies: factors
+     * at j·2π·hz, solves forwards and adjoint into {@code w.nodal()} ({@code xRe/xIm},
+     * {@code adjRe/adjIm}, indexed by {@link NodalSolver#nodeIndex}; op-amp k's row is
+     * {@code solver().nodeNames().size() + k}).
+     */
+    public void solveWithAdjoint(double hz, Workspace w) {
+        solveAt(2 * Math.PI * hz, w);
+        solver.solveAdjoint(w.nodal);
+    }
+
     /** The circuit solved at one frequency, forwards (unit input) and adjoint (unit at the output). */
     public Solution solve(double hz) {
         Workspace w = workspace();
