@@ -13,7 +13,7 @@ import picocli.CommandLine.Command;
             "Design, hear and measure analog noise-shaping filters (pink-noise RC networks).",
             "Run without arguments to open the window."},
         subcommands = {AnalyzeCommand.class, RenderCommand.class, PlayCommand.class, DevicesCommand.class,
-            MeasureCommand.class, FitCommand.class, ToleranceCommand.class, CompareCommand.class, PartsCommand.class,
+            MeasureCommand.class, DiagnoseCommand.class, FitCommand.class, ToleranceCommand.class, CompareCommand.class, PartsCommand.class,
             CommandLine.HelpCommand.class})
 public final class RoseateCommand implements Runnable {
     /** Exit status for bad input: files, values, arguments. */

@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import org.hipparchus.distribution.continuous.ChiSquaredDistribution;
+import org.hipparchus.exception.MathIllegalStateException;
 import org.hipparchus.distribution.continuous.NormalDistribution;
 import org.hipparchus.linear.Array2DRowRealMatrix;
 import org.hipparchus.linear.ArrayRealVector;
@@ -59,8 +60,14 @@ public final class Diagnoser {
     static final double GROUP_LINK = 0.3;
     /** Values may move at most a factor e^±4.6 ≈ 100 from nominal during the search. */
     private static final double MAX_LN_RATIO = Math.log(100);
-    private static final int MAX_ITERATIONS = 200;
-    private static final int MAX_EVALUATIONS = 2000;
+    private static final int MAX_ITERATIONS = 500;
+    private static final int MAX_EVALUATIONS = 5000;
+    /** Rounds of the wrong-part search: up to three parts released beyond their core prior. */
+    private static final int MAX_RELEASE_ROUNDS = 3;
+    /** A release is tried only if the data move the part more than this many core σ. */
+    private static final double RELEASE_SIGMAS = 3;
+    /** Grid of the one-part line search: ln-ratios from 1/10 to 10 in this many steps. */
+    private static final int RELEASE_GRID = 47;
 
     private Diagnoser() {
     }
@@ -106,57 +113,47 @@ public final class Diagnoser {
         double[] sigma = priors.stream().mapToDouble(PartPrior::sigmaLn).toArray();
         LogMagnitudeModel model = new LogMagnitudeModel(design, source, priors, hz);
 
-        double[] target = new double[n + p];
-        for (int k = 0; k < n; k++) {
-            target[k] = m[k] / u[k];
+        Solver solver = new Solver(model, priors, m, u, free);
+        Solver.Fit best = solver.fit(new double[p]);
+        int iterations = best.iterations();
+        // The prior is not convex (a narrow core and a broad wrong-part component), so a search from
+        // the nominal values can stop with a wrong part held near its nominal and the others bent to
+        // compensate. Try releasing one part at a time to where the data alone would put it, keep the
+        // release that lowers the posterior cost most, and repeat (a greedy search over wrong parts).
+        for (int round = 0; round < MAX_RELEASE_ROUNDS; round++) {
+            Solver.Fit improved = null;
+            // Release from the best fit so far, and (first round) from the nominal values, which a
+            // fit that bent the wrong parts may have left behind.
+            List<double[]> bases = round == 0 ? List.of(best.point(), new double[p]) : List.of(best.point());
+            for (double[] base : bases) {
+                for (int j = 0; j < p; j++) {
+                    double[] s0 = Arrays.copyOf(base, p);
+                    s0[j] = solver.bestAlong(j, s0);
+                    if (Math.abs(s0[j] - base[j]) < RELEASE_SIGMAS * sigma[j]) {
+                        continue;
+                    }
+                    Solver.Fit f;
+                    try {
+                        f = solver.fit(s0);
+                    } catch (MathIllegalStateException e) {
+                        continue; // a start that does not converge in the allowed iterations is no candidate
+                    }
+                    iterations += f.iterations();
+                    if (f.cost() < (improved == null ? best.cost() : improved.cost()) - 1e-9) {
+                        improved = f;
+                    }
+                }
+            }
+            if (improved == null) {
+                break;
+            }
+            best = improved;
         }
-        double[] start = new double[q];
-        if (free) {
-            double[] d0 = new double[n];
-            model.db(new double[p], d0);
-            start[p] = weightedOffset(m, d0, u);
-        }
-        double[] db = new double[n];
-        double[][] jac = new double[n][p];
-        LeastSquaresProblem problem = new LeastSquaresBuilder()
-                .start(start)
-                .target(target)
-                .model(point -> {
-                    double[] x = point.toArray();
-                    model.dbAndJacobian(Arrays.copyOf(x, p), db, jac);
-                    double g = free ? x[p] : 0;
-                    double[] v = new double[n + p];
-                    double[][] j = new double[n + p][q];
-                    for (int k = 0; k < n; k++) {
-                        v[k] = (db[k] + g) / u[k];
-                        for (int c = 0; c < p; c++) {
-                            j[k][c] = jac[k][c] / u[k];
-                        }
-                        if (free) {
-                            j[k][p] = 1 / u[k];
-                        }
-                    }
-                    for (int c = 0; c < p; c++) {
-                        v[n + c] = priors.get(c).residual(x[c]);
-                        j[n + c][c] = priors.get(c).residualSlope(x[c]);
-                    }
-                    return new Pair<RealVector, RealMatrix>(new ArrayRealVector(v, false),
-                            new Array2DRowRealMatrix(j, false));
-                })
-                .parameterValidator(point -> {
-                    RealVector c = point.copy();
-                    for (int k = 0; k < p; k++) {
-                        c.setEntry(k, Math.max(-MAX_LN_RATIO, Math.min(MAX_LN_RATIO, c.getEntry(k))));
-                    }
-                    return c;
-                })
-                .maxIterations(MAX_ITERATIONS)
-                .maxEvaluations(MAX_EVALUATIONS)
-                .build();
-        LeastSquaresOptimizer.Optimum opt = new LevenbergMarquardtOptimizer().optimize(problem);
-        double[] x = opt.getPoint().toArray();
+        double[] x = best.point();
         double[] theta = Arrays.copyOf(x, p);
         double g = free ? x[p] : 0;
+        double[] db = new double[n];
+        double[][] jac = new double[n][p];
 
         // Information matrices at the optimum (whitened Jacobian rows of the data only).
         model.dbAndJacobian(theta, db, jac);
@@ -236,7 +233,119 @@ public final class Diagnoser {
 
         List<List<String>> groups = ambiguityGroups(priors, fisher, sigma, free);
         return new Diagnosis(parts, groups, Math.sqrt(ss / n), Math.sqrt(uu / n), chi2, dof, pValue,
-                free ? g : Double.NaN, points, confidence, opt.getIterations());
+                free ? g : Double.NaN, points, confidence, iterations);
+    }
+
+    /** One Levenberg–Marquardt problem over (θ, g), reused from several starting points. */
+    private static final class Solver {
+        record Fit(double[] point, double cost, int iterations) {
+        }
+
+        private final LogMagnitudeModel model;
+        private final List<PartPrior> priors;
+        private final double[] m;
+        private final double[] u;
+        private final boolean free;
+        private final int n;
+        private final int p;
+        private final double[] target;
+
+        Solver(LogMagnitudeModel model, List<PartPrior> priors, double[] m, double[] u, boolean free) {
+            this.model = model;
+            this.priors = priors;
+            this.m = m;
+            this.u = u;
+            this.free = free;
+            this.n = m.length;
+            this.p = priors.size();
+            this.target = new double[n + p];
+            for (int k = 0; k < n; k++) {
+                target[k] = m[k] / u[k];
+            }
+        }
+
+        /** Posterior cost −2·ln p (up to a constant) at θ, the level offset profiled out when free. */
+        double cost(double[] theta, double[] db) {
+            model.db(theta, db);
+            double g = free ? weightedOffset(m, db, u) : 0;
+            double c = 0;
+            for (int k = 0; k < n; k++) {
+                double r = (m[k] - db[k] - g) / u[k];
+                c += r * r;
+            }
+            for (int j = 0; j < p; j++) {
+                c += priors.get(j).cost(theta[j]);
+            }
+            return c;
+        }
+
+        /** The ln-ratio of part j, others held, with the lowest posterior cost on a grid 1/10 … 10. */
+        double bestAlong(int j, double[] start) {
+            double[] t = Arrays.copyOf(start, p);
+            double[] db = new double[n];
+            double bestTheta = t[j];
+            double best = cost(t, db);
+            double span = Math.log(10);
+            for (int i = 0; i < RELEASE_GRID; i++) {
+                t[j] = -span + 2 * span * i / (RELEASE_GRID - 1);
+                double c = cost(t, db);
+                if (c < best) {
+                    best = c;
+                    bestTheta = t[j];
+                }
+            }
+            return bestTheta;
+        }
+
+        Fit fit(double[] start) {
+            int q = p + (free ? 1 : 0);
+            double[] s0 = Arrays.copyOf(start, q);
+            if (free) {
+                double[] d0 = new double[n];
+                model.db(Arrays.copyOf(start, p), d0);
+                s0[p] = weightedOffset(m, d0, u);
+            }
+            double[] db = new double[n];
+            double[][] jac = new double[n][p];
+            LeastSquaresProblem problem = new LeastSquaresBuilder()
+                    .start(s0)
+                    .target(target)
+                    .model(point -> {
+                        double[] x = point.toArray();
+                        model.dbAndJacobian(Arrays.copyOf(x, p), db, jac);
+                        double g = free ? x[p] : 0;
+                        double[] v = new double[n + p];
+                        double[][] j = new double[n + p][q];
+                        for (int k = 0; k < n; k++) {
+                            v[k] = (db[k] + g) / u[k];
+                            for (int c = 0; c < p; c++) {
+                                j[k][c] = jac[k][c] / u[k];
+                            }
+                            if (free) {
+                                j[k][p] = 1 / u[k];
+                            }
+                        }
+                        for (int c = 0; c < p; c++) {
+                            v[n + c] = priors.get(c).residual(x[c]);
+                            j[n + c][c] = priors.get(c).residualSlope(x[c]);
+                        }
+                        return new Pair<RealVector, RealMatrix>(new ArrayRealVector(v, false),
+                                new Array2DRowRealMatrix(j, false));
+                    })
+                    .parameterValidator(point -> {
+                        RealVector c = point.copy();
+                        for (int k = 0; k < p; k++) {
+                            c.setEntry(k, Math.max(-MAX_LN_RATIO, Math.min(MAX_LN_RATIO, c.getEntry(k))));
+                        }
+                        return c;
+                    })
+                    .maxIterations(MAX_ITERATIONS)
+                    .maxEvaluations(MAX_EVALUATIONS)
+                    .build();
+            LeastSquaresOptimizer.Optimum opt = new LevenbergMarquardtOptimizer().optimize(problem);
+            double c = opt.getCost();
+            return new Fit(opt.getPoint().toArray(), c * c, opt.getIterations());
+        }
     }
 
     private static int[] trustedIndices(MeasuredResponse m) {
