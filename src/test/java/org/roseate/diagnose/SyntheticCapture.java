@@ -34,7 +34,16 @@ public final class SyntheticCapture {
      */
     public static void write(Path file, Design built, int rateHz, int log2Frames, boolean transfer,
             double responseNoise, long seed) throws IOException {
+        write(file, built, rateHz, log2Frames, transfer, responseNoise, seed, 1 << log2Frames);
+    }
+
+    /** As {@link #write(Path, Design, int, int, boolean, double, long)}, keeping only the first {@code keepFrames} frames. */
+    public static void write(Path file, Design built, int rateHz, int log2Frames, boolean transfer,
+            double responseNoise, long seed, int keepFrames) throws IOException {
         int n = 1 << log2Frames;
+        if (keepFrames < 1 || keepFrames > n) {
+            throw new IllegalArgumentException("keepFrames=" + keepFrames + " outside 1 … " + n);
+        }
         Random rnd = new Random(seed);
         double[] xr = new double[n];
         for (int i = 0; i < n; i++) {
@@ -85,8 +94,8 @@ public final class SyntheticCapture {
             }
         }
         try (OutputStream out = Files.newOutputStream(file)) {
-            WavWriter w = WavWriter.withoutDither(out, new WavFormat(rateHz, channels, SampleEncoding.FLOAT_32), n);
-            w.writeFrames(frames, n);
+            WavWriter w = WavWriter.withoutDither(out, new WavFormat(rateHz, channels, SampleEncoding.FLOAT_32), keepFrames);
+            w.writeFrames(frames, keepFrames);
             w.finish();
         }
     }
