@@ -84,6 +84,15 @@ class DiagnoseCommandTest {
         }
         assertEquals(new TreeSet<>(factors.keySet()), flagged, () -> "flagged: " + root.get("parts"));
         assertFalse(root.get("modelMisfit").asBoolean(), () -> "misfit p=" + root.get("misfitPValue"));
+        // The stated per-point uncertainties must not understate the real scatter: χ²/ν of a correct
+        // model below 1.5 (for ν ≈ 65, χ²/ν has a standard deviation of √(2/ν) ≈ 0.18, so 1.5 is ~3σ).
+        double ratio = root.get("chiSquare").asDouble() / root.get("degreesOfFreedom").asDouble();
+        assertTrue(ratio < 1.5, "χ²/ν = " + ratio);
+        if (root.get("mode").asText().equals("noise")) {
+            // Noise-source scatter follows the bandwidth–time product closely, so nor is it overstated
+            // by more than ~3σ (transfer captures add a floor, CaptureResponses.FLOOR_DB, so may read lower).
+            assertTrue(ratio > 0.5, "χ²/ν = " + ratio);
+        }
     }
 
     @Test
