@@ -426,8 +426,10 @@ final class DiagnoseCommand implements Callable<Integer> {
                     new Tolerance(p.tolerance()), p.probabilityOutside(), p.outOfTolerance() ? "  OUT OF TOLERANCE" : ""));
         }
         sb.append('\n');
-        List<PartEstimate> flagged = dx.flagged();
-        if (flagged.isEmpty()) {
+        List<PartEstimate> flagged = dx.modelMisfit() ? List.of() : dx.flagged();
+        if (dx.modelMisfit()) {
+            sb.append("No part values explain this measurement (see the residual below), so no part is named to change.\n");
+        } else if (flagged.isEmpty()) {
             sb.append(Numbers.f("No part is outside its tolerance at %s confidence.%n", percent(dx.confidence())));
         }
         for (PartEstimate p : flagged) {

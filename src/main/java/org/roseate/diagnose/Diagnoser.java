@@ -61,7 +61,7 @@ public final class Diagnoser {
     /** Values may move at most a factor e^±4.6 ≈ 100 from nominal during the search. */
     private static final double MAX_LN_RATIO = Math.log(100);
     private static final int MAX_ITERATIONS = 500;
-    private static final int MAX_EVALUATIONS = 5000;
+    private static final int MAX_EVALUATIONS = 50 * MAX_ITERATIONS;
     /** Rounds of the wrong-part search: up to three parts released beyond their core prior. */
     private static final int MAX_RELEASE_ROUNDS = 3;
     /** A release is tried only if the data move the part more than this many core σ. */
@@ -339,7 +339,10 @@ public final class Diagnoser {
                         }
                         return c;
                     })
-                    .maxIterations(MAX_ITERATIONS)
+                    // Stop at MAX_ITERATIONS with the point reached (rather than throw): the χ² test then
+                    // reports whatever misfit is left. The optimiser's own tolerances end most fits far earlier.
+                    .checker((iteration, previous, current) -> iteration >= MAX_ITERATIONS)
+                    .maxIterations(MAX_ITERATIONS + 10)
                     .maxEvaluations(MAX_EVALUATIONS)
                     .build();
             LeastSquaresOptimizer.Optimum opt = new LevenbergMarquardtOptimizer().optimize(problem);
