@@ -13,7 +13,8 @@ import picocli.CommandLine.Command;
             "Design, hear and measure analog noise-shaping filters (pink-noise RC networks).",
             "Run without arguments to open the window."},
         subcommands = {AnalyzeCommand.class, RenderCommand.class, PlayCommand.class, DevicesCommand.class,
-            MeasureCommand.class, ListenTestCommand.class, FitCommand.class, ToleranceCommand.class, CompareCommand.class, PartsCommand.class,
+            MeasureCommand.class, DiagnoseCommand.class, ListenTestCommand.class, FitCommand.class, ToleranceCommand.class,
+            CompareCommand.class, PartsCommand.class,
             CommandLine.HelpCommand.class})
 public final class RoseateCommand implements Runnable {
     /** Exit status for bad input: files, values, arguments. */

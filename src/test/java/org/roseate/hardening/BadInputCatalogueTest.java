@@ -107,6 +107,11 @@ class BadInputCatalogueTest {
         row("WAV file", "unsupported encoding (format tag 2, ADPCM)", 2, false, "adpcm.wav: unsupported encoding (format tag 2", "measure", "@adpcm.wav");
         row("WAV file", "channel out of range", 2, false, "ok.wav: channel 3 is out of range; the source has 1", "measure", "@ok.wav", "--channel", "3");
         row("WAV file", "missing file", 2, false, "nope.wav: no such file", "measure", "@nope.wav");
+        // diagnose
+        row("diagnose", "design with no tolerances", 2, false, "good.json: no tolerance for R1, R2, C1; give them with --tolerance R=1%,C=5%", "diagnose", "@good.json", "@ok.wav");
+        row("diagnose", "capture whose coherence is too low to say anything", 2, false, "unrelated.wav: coherence is below 0.90 at", "diagnose", "@toleranced.json", "@unrelated.wav", "--reference-channel", "1");
+        row("diagnose", "capture at a rate the design cannot be judged at", 2, false, "slow.wav: at 8.000 kHz the analysed band ends at 3.600 kHz", "diagnose", "@treble.json", "@slow.wav");
+        row("diagnose", "bad --tolerance", 2, false, "--tolerance: expected entries such as R=1%,C=5%", "diagnose", "@toleranced.json", "@ok.wav", "--tolerance", "R:1%");
         // command-line arguments
         row("argument", "render --rate 12345", 2, false, "--rate: expected 44100, 48000, 96000 or 192000, found 12345", "render", "@good.json", "-o", "@r1.wav", "--rate", "12345");
         row("argument", "render --bits 20", 2, false, "--bits: expected 16, 24 or 32f, found '20'", "render", "@good.json", "-o", "@r2.wav", "--bits", "20");
@@ -178,6 +183,25 @@ class BadInputCatalogueTest {
         Files.write(dir.resolve("truncated.wav"), java.util.Arrays.copyOf(ok, 1000));
         Files.write(dir.resolve("adpcm.wav"), wav(2, 1, 4, 48000, 4800));
         Files.write(dir.resolve("exists.wav"), "old content".getBytes(StandardCharsets.US_ASCII));
+        write("toleranced.json", "{\"name\": \"n\", \"tolerance\": {\"R\": \"1%\", \"C\": \"5%\"}, \"stages\": [{\"kind\": "
+                + "\"inverting\", \"input\": \"R1(10k)\", \"feedback\": \"R2(100k) || C1(10n)\"}]}");
+        write("treble.json", "{\"name\": \"n\", \"tolerance\": {\"R\": \"1%\", \"C\": \"5%\"}, \"stages\": [{\"kind\": "
+                + "\"inverting\", \"input\": \"R1(10k)\", \"feedback\": \"R2(100k) || C1(100p)\"}]}");
+        Files.write(dir.resolve("unrelated.wav"), unrelatedNoise(48000, 4 * 48000));
+        Files.write(dir.resolve("slow.wav"), wav(1, 1, 16, 8000, 8000));
+    }
+
+    /** Two channels of independent seeded noise (16-bit, 44-byte header): no coherence between them. */
+    static byte[] unrelatedNoise(int rate, int frames) {
+        byte[] header = wav(1, 2, 16, rate, 0);
+        ByteBuffer b = ByteBuffer.allocate(44 + frames * 4).order(ByteOrder.LITTLE_ENDIAN);
+        b.put(header, 0, 44);
+        b.putInt(4, 36 + frames * 4).putInt(40, frames * 4);
+        java.util.Random rnd = new java.util.Random(16);
+        for (int i = 0; i < 2 * frames; i++) {
+            b.putShort((short) Math.round(3000 * rnd.nextGaussian()));
+        }
+        return b.array();
     }
 
     private static void circuit(String name, String input, String output, String branches, String opamps) throws IOException {

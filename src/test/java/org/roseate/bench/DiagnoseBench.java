@@ -1,0 +1,94 @@
+package org.roseate.bench;
+
+import java.io.OutputStream;
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.TimeUnit;
+import org.openjdk.jmh.annotations.Benchmark;
+import org.openjdk.jmh.annotations.BenchmarkMode;
+import org.openjdk.jmh.annotations.Fork;
+import org.openjdk.jmh.annotations.Level;
+import org.openjdk.jmh.annotations.Measurement;
+import org.openjdk.jmh.annotations.Mode;
+import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Scope;
+import org.openjdk.jmh.annotations.Setup;
+import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.TearDown;
+import org.openjdk.jmh.annotations.Warmup;
+import org.roseate.circuit.Design;
+import org.roseate.circuit.DesignReader;
+import org.roseate.cli.RoseateCommand;
+import org.roseate.diagnose.CaptureResponses;
+import org.roseate.diagnose.Diagnoser;
+import org.roseate.diagnose.Diagnosis;
+import org.roseate.diagnose.MeasuredResponse;
+import org.roseate.diagnose.PartPrior;
+import org.roseate.diagnose.SyntheticCapture;
+import org.roseate.spectrum.CrossSpectrumEstimator;
+import org.roseate.spectrum.WelchSettings;
+
+/**
+ * Issue 16, speed: {@code diagnose} of a 10-part design (presets/passive-pink.json, two parts moved)
+ * from a 60 s, 48 kHz two-channel transfer capture. {@code solver} times the estimation alone on the
+ * capture's measured response; {@code wholeCommand} the command in process (read the WAV, Welch,
+ * solve, format). Target: under 5 s for the whole command.
+ */
+@State(Scope.Benchmark)
+@BenchmarkMode(Mode.AverageTime)
+@OutputTimeUnit(TimeUnit.MILLISECONDS)
+@Warmup(iterations = 2, time = 1)
+@Measurement(iterations = 3, time = 1)
+@Fork(1)
+public class DiagnoseBench {
+    private static final Path DESIGN = Path.of("presets/passive-pink.json");
+    private static final int RATE_HZ = 48000;
+    private static final int SEGMENT = 8192;
+    private final PrintWriter sink = new PrintWriter(OutputStream.nullOutputStream());
+    private Path capture;
+    private Design design;
+    private List<PartPrior> priors;
+    private MeasuredResponse measured;
+
+    @Setup(Level.Trial)
+    public void setUp() throws Exception {
+        design = DesignReader.read(DESIGN);
+        priors = PartPrior.of(design, Map.of());
+        capture = Files.createTempFile("roseate-diagnose-bench-", ".wav");
+        SyntheticCapture.write(capture, design.withValues(Map.of("R4", 6800 * 0.8, "C3", 33e-9 * 1.2)), RATE_HZ, 22,
+                true, 0.01, 42, 60 * RATE_HZ);
+        CrossSpectrumEstimator est = new CrossSpectrumEstimator();
+        est.prepare(RATE_HZ, WelchSettings.of(SEGMENT));
+        try (var reader = org.roseate.io.WavReader.open(capture)) {
+            double[] buf = new double[8192 * 2];
+            for (int got; (got = reader.readFrames(buf, 8192)) > 0; ) {
+                est.acceptInterleaved(buf, got, 2, 0, 1);
+            }
+        }
+        double[] band = CaptureResponses.band(RATE_HZ, SEGMENT);
+        measured = CaptureResponses.fromTransfer(est.snapshot().transfer(), band[0], band[1], "bench");
+    }
+
+    @TearDown(Level.Trial)
+    public void tearDown() throws Exception {
+        Files.deleteIfExists(capture);
+    }
+
+    @Benchmark
+    public Diagnosis solver() {
+        return Diagnoser.diagnose(design, "passive-pink.json", priors, measured, Diagnoser.DEFAULT_CONFIDENCE);
+    }
+
+    @Benchmark
+    public int wholeCommand() {
+        int status = RoseateCommand.run(sink, sink, "diagnose", DESIGN.toString(), capture.toString(),
+                "--reference-channel", "1");
+        if (status != 0) {
+            throw new IllegalStateException("diagnose exited with " + status);
+        }
+        return status;
+    }
+}
