@@ -133,6 +133,13 @@ public final class NoiseBudget {
         return evaluate(hz, new double[contributors.size()], null);
     }
 
+    /** At {@code hz}: the output density's source part and the circuit's own part, V²/Hz ({source, self}). */
+    public double[] outputDensityParts(double hz) {
+        double[] per = new double[contributors.size()];
+        double total = evaluate(hz, per, null);
+        return new double[] {per[0], total - per[0]};
+    }
+
     /**
      * The budget over [loHz, hiHz] ({@link Quadrature}), the output density at {@code densityHz}
      * and the band levels in bands of {@code fraction} that lie within the range.
