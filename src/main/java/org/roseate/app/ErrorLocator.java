@@ -8,6 +8,7 @@ import java.util.Optional;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.roseate.circuit.DesignException;
+import org.roseate.circuit.DesignReader;
 
 /**
  * Finds where in the design text a {@link DesignException} points. A network error carries its
@@ -72,6 +73,10 @@ final class ErrorLocator {
                         continue;
                     }
                     int objectStart = (int) p.currentTokenLocation().getCharOffset();
+                    if (role != null && role.contains(DesignReader.PATH_SEPARATOR)) {
+                        Optional<TextSpan> s = inPath(text, p, role.split(DesignReader.PATH_SEPARATOR), 0, column);
+                        return s.isPresent() ? s : Optional.of(TextSpan.lineAt(text, objectStart));
+                    }
                     if (role != null || fieldName != null) {
                         while (p.nextToken() == JsonToken.FIELD_NAME) {
                             String r = p.currentName();
@@ -92,6 +97,32 @@ final class ErrorLocator {
             }
         } catch (IOException | RuntimeException ex) {
             return Optional.empty();
+        }
+        return Optional.empty();
+    }
+
+    /**
+     * A circuit stage's nested key path ({@code branches/in a}, {@code opamps/U1/plus}): the
+     * parser stands on an object's START_OBJECT; the leaf's string value is marked (at
+     * {@code column} when given), or the key's name when the value is not a string.
+     */
+    private static Optional<TextSpan> inPath(String text, JsonParser p, String[] path, int depth, int column) throws IOException {
+        while (p.nextToken() == JsonToken.FIELD_NAME) {
+            String name = p.currentName();
+            int at = (int) p.currentTokenLocation().getCharOffset();
+            JsonToken v = p.nextToken();
+            if (!name.equals(path[depth])) {
+                p.skipChildren();
+                continue;
+            }
+            if (depth + 1 < path.length && v == JsonToken.START_OBJECT) {
+                Optional<TextSpan> inner = inPath(text, p, path, depth + 1, column);
+                return inner.isPresent() ? inner : Optional.of(TextSpan.of(text, at + 1, at + 1 + name.length()));
+            }
+            if (v == JsonToken.VALUE_STRING) {
+                return Optional.of(inString(text, (int) p.currentTokenLocation().getCharOffset(), column));
+            }
+            return Optional.of(TextSpan.of(text, at + 1, at + 1 + name.length()));
         }
         return Optional.empty();
     }

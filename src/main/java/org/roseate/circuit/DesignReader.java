@@ -94,6 +94,10 @@ public final class DesignReader {
         } catch (JsonProcessingException e) {
             JsonLocation at = e.getLocation();
             String where = at == null ? "" : " at line " + at.getLineNr() + ", column " + at.getColumnNr();
+            String duplicate = duplicateKey(e, at);
+            if (duplicate != null) {
+                throw fail(duplicate);
+            }
             throw fail("invalid JSON" + where + ": " + firstLine(e.getOriginalMessage()));
         }
         if (root == null || root.isMissingNode()) {
@@ -488,6 +492,35 @@ public final class DesignReader {
             case STRING -> "the string \"" + n.asText() + "\"";
             default -> n.getNodeType().toString().toLowerCase(java.util.Locale.ROOT);
         };
+    }
+
+    /**
+     * Strict duplicate detection's error, with its place in the design's own terms:
+     * "stage 1 branches: key 'in a' appears twice (line 1, column 116); each key may appear once".
+     */
+    private static String duplicateKey(JsonProcessingException e, JsonLocation at) {
+        String m = e.getOriginalMessage();
+        java.util.regex.Matcher k = java.util.regex.Pattern.compile("^Duplicate field '(.*)'").matcher(m == null ? "" : m);
+        if (!k.find()) {
+            return null;
+        }
+        StringBuilder place = new StringBuilder();
+        if (e.getProcessor() instanceof com.fasterxml.jackson.core.JsonParser p) {
+            String[] parts = p.getParsingContext().getParent() == null ? new String[0]
+                    : p.getParsingContext().getParent().pathAsPointer().toString().split("/");
+            for (int i = 1; i < parts.length; i++) {
+                String part = parts[i].replace("~1", "/").replace("~0", "~");
+                if (i == 2 && "stages".equals(parts[1]) && part.matches("\\d+")) {
+                    place.setLength(0);
+                    place.append("stage ").append(Integer.parseInt(part) + 1);
+                } else if (!(i == 1 && "stages".equals(part))) {
+                    place.append(place.length() == 0 ? "" : " ").append(part);
+                }
+            }
+        }
+        String where = at == null ? "" : " (line " + at.getLineNr() + ", column " + at.getColumnNr() + ")";
+        return (place.length() == 0 ? "" : place + ": ") + "key '" + k.group(1) + "' appears twice" + where
+                + "; each key may appear once";
     }
 
     /** Jackson's message, first line only, without its source-location annotations. */

@@ -271,7 +271,8 @@ public final class NodalModel {
      * taking the inverse discrete Fourier transform gives c_j·ρ^j exactly up to rounding (a unitary
      * map, so no error growth). One circle cannot resolve coefficients whose terms differ by many
      * decades, so the circuit is sampled on one circle per decade of radius and each coefficient
-     * is taken from the circle where its term c_j·ρ^j is largest relative to the samples (a
+     * is taken from the circle where its term c_j·ρ^j is largest relative to the samples of N and
+     * D (N = D·v_out inherits D's rounding, so the larger of the two sets the floor) (a
      * Newton-polygon argument: the term of each coefficient dominates near the radius of the roots
      * around it). Terms that stay below {@value #NEGLIGIBLE_TERM} of the samples on every circle are
      * zero; that trims degrees the bound overestimates. Common roots of N and D are removed
@@ -349,8 +350,13 @@ public final class NodalModel {
                 pnRe[i] = Math.scalb(pnRe[i], shift);
                 pnIm[i] = Math.scalb(pnIm[i], shift);
             }
-            pick(pnRe, pnIm, rho, maxExp, bestNum, sigNum);
-            pick(pdRe, pdIm, rho, maxExp, bestDen, sigDen);
+            // N_k = D_k·v_out carries D_k's rounding, so both are judged against the larger samples.
+            double scale = 0;
+            for (int i = 0; i < k; i++) {
+                scale = Math.max(scale, Math.max(Math.hypot(pnRe[i], pnIm[i]), Math.hypot(pdRe[i], pdIm[i])));
+            }
+            pick(pnRe, pnIm, rho, maxExp, scale, bestNum, sigNum);
+            pick(pdRe, pdIm, rho, maxExp, scale, bestDen, sigDen);
         }
         for (int j = 0; j < k; j++) {
             if (sigNum[j] < NEGLIGIBLE_TERM) {
@@ -372,14 +378,11 @@ public final class NodalModel {
 
     /**
      * Inverse DFT of samples on the circle |x| = ρ (scaled by 2^exp); keeps each coefficient from
-     * the circle where its term is largest relative to the largest sample.
+     * the circle where its term is largest relative to {@code scale}, the largest sample of N or D
+     * there (the size of the rounding in both).
      */
-    private static void pick(double[] re, double[] im, double rho, int exp, double[] best, double[] significance) {
+    private static void pick(double[] re, double[] im, double rho, int exp, double scale, double[] best, double[] significance) {
         int k = re.length;
-        double scale = 0;
-        for (int i = 0; i < k; i++) {
-            scale = Math.max(scale, Math.hypot(re[i], im[i]));
-        }
         if (scale == 0) {
             return;
         }

@@ -150,6 +150,8 @@ public final class NodalSolver {
         final double[] rhsIm;
         final double[] tmpRe;
         final double[] tmpIm;
+        final double[] origRe;
+        final double[] origIm;
         /** Node voltages (V per V of input) after {@link NodalSolver#solve}, then op-amp currents (R0·A). */
         public final double[] xRe;
         public final double[] xIm;
@@ -172,6 +174,8 @@ public final class NodalSolver {
             rhsIm = new double[n];
             tmpRe = new double[n];
             tmpIm = new double[n];
+            origRe = new double[n * n];
+            origIm = new double[n * n];
             xRe = new double[n];
             xIm = new double[n];
             adjRe = new double[n];
@@ -241,6 +245,8 @@ public final class NodalSolver {
             re[r * n + o] -= invGainDc[k] + sRe * invGainPerRadPerS[k];
             im[r * n + o] -= sIm * invGainPerRadPerS[k];
         }
+        System.arraycopy(re, 0, w.origRe, 0, re.length);
+        System.arraycopy(im, 0, w.origIm, 0, im.length);
         return decompose(w);
     }
 
@@ -346,17 +352,50 @@ public final class NodalSolver {
     /**
      * Solves M·x = b for the unit input drive after {@link #factor}: {@code w.xRe/xIm} then hold
      * the node voltages (V per V at the input) in {@link #nodeNames()} order, then the op-amp
-     * output currents times R0.
+     * output currents times R0. Uses the adjoint buffers as scratch: call
+     * {@link #solveAdjoint} after this, not before.
      */
     public void solve(Workspace w) {
+        substitute(w.rhsRe, w.rhsIm, w.xRe, w.xIm, w);
+        // One step of iterative refinement in working precision: r = b − M·x, M·d = r, x += d.
+        // It brings small node voltages (a deeply attenuated output) to full relative accuracy
+        // where plain LU gives them only relative to the largest voltage (Skeel's componentwise
+        // analysis; Higham, Accuracy and Stability of Numerical Algorithms, ch. 12).
+        int n = size;
+        double[] rr = w.tmpRe;
+        double[] ri = w.tmpIm;
+        for (int i = 0; i < n; i++) {
+            double sr = w.rhsRe[i];
+            double si = w.rhsIm[i];
+            int row = i * n;
+            for (int j = 0; j < n; j++) {
+                double mr = w.origRe[row + j];
+                double mi = w.origIm[row + j];
+                if (mr != 0 || mi != 0) {
+                    sr -= mr * w.xRe[j] - mi * w.xIm[j];
+                    si -= mr * w.xIm[j] + mi * w.xRe[j];
+                }
+            }
+            rr[i] = sr;
+            ri[i] = si;
+        }
+        double[] dr = w.adjRe;
+        double[] di = w.adjIm;
+        substitute(rr, ri, dr, di, w);
+        for (int i = 0; i < n; i++) {
+            w.xRe[i] += dr[i];
+            w.xIm[i] += di[i];
+        }
+    }
+
+    /** Forward and back substitution of P·M = L·U for right side b into x (x may not alias b). */
+    private void substitute(double[] bRe, double[] bIm, double[] xr, double[] xi, Workspace w) {
         int n = size;
         double[] re = w.re;
         double[] im = w.im;
-        double[] xr = w.xRe;
-        double[] xi = w.xIm;
         for (int i = 0; i < n; i++) {
-            double sr = w.rhsRe[w.perm[i]];
-            double si = w.rhsIm[w.perm[i]];
+            double sr = bRe[w.perm[i]];
+            double si = bIm[w.perm[i]];
             int ri = i * n;
             for (int j = 0; j < i; j++) {
                 double lr = re[ri + j];

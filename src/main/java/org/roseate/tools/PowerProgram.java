@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import org.roseate.circuit.CircuitStage;
 import org.roseate.circuit.Component;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DividerStage;
@@ -14,6 +15,7 @@ import org.roseate.circuit.OpAmp;
 import org.roseate.circuit.Parallel;
 import org.roseate.circuit.Series;
 import org.roseate.circuit.Stage;
+import org.roseate.model.NodalSolver;
 import org.roseate.value.ComponentKind;
 
 /**
@@ -33,6 +35,7 @@ final class PowerProgram {
     private static final int KIND_INVERTING = 0;
     private static final int KIND_NONINVERTING = 1;
     private static final int KIND_DIVIDER = 2;
+    private static final int KIND_CIRCUIT = 3;
 
     private final List<Component> parts;
     private final Map<String, Integer> slots;
@@ -45,6 +48,9 @@ final class PowerProgram {
     private final int[][] programLoad;
     private final double[] openLoopGain;
     private final double[] tauSeconds;
+    /** Per circuit stage: its nodal equations and one program per branch (null for other kinds). */
+    private final NodalSolver[] nodal;
+    private final int[][][] branchPrograms;
     private final int depth;
 
     private PowerProgram(Design design) {
@@ -63,11 +69,25 @@ final class PowerProgram {
         programLoad = new int[n][];
         openLoopGain = new double[n];
         tauSeconds = new double[n];
+        nodal = new NodalSolver[n];
+        branchPrograms = new int[n][][];
         int d = 1;
         for (int s = 0; s < n; s++) {
             Stage st = design.stages().get(s);
             Network a;
             Network b;
+            if (st instanceof CircuitStage c) {
+                stageKind[s] = KIND_CIRCUIT;
+                nodal[s] = NodalSolver.of(c);
+                List<String> keys = nodal[s].branchKeys();
+                branchPrograms[s] = new int[keys.size()][];
+                for (int k = 0; k < keys.size(); k++) {
+                    Network net = c.branches().get(keys.get(k));
+                    branchPrograms[s][k] = compile(net);
+                    d = Math.max(d, depth(net));
+                }
+                continue;
+            }
             if (st instanceof InvertingStage inv) {
                 stageKind[s] = KIND_INVERTING;
                 a = inv.feedback();
@@ -85,7 +105,7 @@ final class PowerProgram {
             }
             programA[s] = compile(a);
             programB[s] = compile(b);
-            OpAmp op = st.opamp().orElse(null);
+            OpAmp op = st.opamp().filter(o -> !o.isIdeal()).orElse(null);
             openLoopGain[s] = op == null ? Double.POSITIVE_INFINITY : op.openLoopGain();
             tauSeconds[s] = op == null ? 0 : op.poleTimeConstantSeconds();
             d = Math.max(d, Math.max(depth(a), depth(b)));
@@ -129,7 +149,11 @@ final class PowerProgram {
     }
 
     Workspace workspace() {
-        return new Workspace(depth, kindCode.length);
+        NodalSolver.Workspace[] n = new NodalSolver.Workspace[nodal.length];
+        for (int s = 0; s < n.length; s++) {
+            n[s] = nodal[s] == null ? null : nodal[s].workspace();
+        }
+        return new Workspace(depth, kindCode.length, n);
     }
 
     /** Per-thread stacks; allocation happens here, never in {@link #power}. */
@@ -138,12 +162,14 @@ final class PowerProgram {
         final double[] im;
         final double[] values;
         final double[] inverse;
+        final NodalSolver.Workspace[] nodal;
 
-        Workspace(int depth, int parts) {
+        Workspace(int depth, int parts, NodalSolver.Workspace[] nodal) {
             re = new double[depth];
             im = new double[depth];
             values = new double[parts];
             inverse = new double[parts];
+            this.nodal = nodal;
         }
     }
 
@@ -205,6 +231,10 @@ final class PowerProgram {
         double[] re = w.re;
         double[] im = w.im;
         for (int s = 0; s < stageKind.length; s++) {
+            if (stageKind[s] == KIND_CIRCUIT) {
+                acc *= circuitPower(s, omegaRadPerS, w);
+                continue;
+            }
             run(programA[s], omegaRadPerS, w);
             double ar = re[0];
             double ai = im[0];
@@ -248,6 +278,26 @@ final class PowerProgram {
             acc *= p;
         }
         return acc;
+    }
+
+    /**
+     * |v_out|² of a circuit stage: branch impedances from the slot values, then the model's own
+     * nodal equations ({@link NodalSolver}), whose independent check is the numpy solver's data.
+     */
+    private double circuitPower(int s, double omegaRadPerS, Workspace w) {
+        NodalSolver.Workspace nw = w.nodal[s];
+        int[][] programs = branchPrograms[s];
+        for (int k = 0; k < programs.length; k++) {
+            run(programs[k], omegaRadPerS, w);
+            double m = NodalSolver.REFERENCE_OHMS / (w.re[0] * w.re[0] + w.im[0] * w.im[0]);
+            nw.yRe[k] = w.re[0] * m;
+            nw.yIm[k] = -w.im[0] * m;
+        }
+        nodal[s].factor(0, omegaRadPerS, nw);
+        nodal[s].solve(nw);
+        double hr = nodal[s].outputRe(nw);
+        double hi = nodal[s].outputIm(nw);
+        return hr * hr + hi * hi;
     }
 
     /** Runs a network program at ω; the impedance ends in re[0], im[0]. */

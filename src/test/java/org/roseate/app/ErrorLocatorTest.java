@@ -77,4 +77,32 @@ class ErrorLocatorTest {
         assertTrue(o.ok());
         assertEquals(31, o.curves().bands().size()); // IEC 61260-1: 31 third-octave bands from 20 Hz to 20 kHz
     }
+
+    private static final String CIRCUIT = "{\"name\": \"c\", \"stages\": [{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\",\n"
+            + "  \"branches\": {\"in a\": \"R1(68k)\", \"a b\": \"R2(33k)\", \"a out\": \"C1(470n)\", \"b gnd\": \"C2(220n)\"},\n"
+            + "  \"opamps\": {\"U1\": {\"plus\": \"b\", \"minus\": \"out\", \"output\": \"out\"}}}]}";
+
+    @Test
+    void circuitBranchErrorPointsIntoTheBranchValue() {
+        String text = CIRCUIT.replace("R2(33k)", "R2(33kk)");
+        TextSpan s = read(text).errorSpan().orElseThrow();
+        assertEquals(text.indexOf("33kk"), s.start());
+    }
+
+    @Test
+    void circuitPinErrorPointsAtThePinValue() {
+        String text = CIRCUIT.replace("\"plus\": \"b\"", "\"plus\": \"zz\"");
+        DesignOutcome o = read(text);
+        assertTrue(o.error().getMessage().contains("opamps U1 plus: unknown node 'zz'"), o.error().getMessage());
+        TextSpan s = o.errorSpan().orElseThrow();
+        assertEquals(text.indexOf("zz"), s.start());
+        assertEquals("zz", text.substring(s.start(), s.end()));
+    }
+
+    @Test
+    void aCircuitDesignHasCurves() {
+        DesignOutcome o = read(CIRCUIT);
+        assertTrue(o.ok(), () -> o.error().getMessage());
+        assertEquals(31, o.curves().bands().size()); // IEC 61260-1: 31 third-octave bands from 20 Hz to 20 kHz
+    }
 }

@@ -63,7 +63,7 @@ class DesignReaderTest {
         "{\"stages\": []} ; d.json: missing key 'name'",
         "{\"name\": \"x\", \"stages\": []} ; d.json: 'stages' is empty",
         "{\"name\": \"x\", \"stages\": {}} ; d.json: 'stages' must be a list",
-        "{\"name\": \"x\", \"stages\": [{\"kind\": \"bandpass\"}]} ; d.json: stage 1: unknown kind 'bandpass'; expected inverting, noninverting or divider",
+        "{\"name\": \"x\", \"stages\": [{\"kind\": \"bandpass\"}]} ; d.json: stage 1: unknown kind 'bandpass'; expected inverting, noninverting, divider or circuit",
         "{\"name\": \"x\", \"stages\": [{\"input\": \"R1(1k)\"}]} ; d.json: stage 1: missing key 'kind'",
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1k)\"}]} ; d.json: stage 1 (inverting): missing key 'feedback'",
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1k)\", \"feedbak\": \"R2(1k)\"}]} ; d.json: stage 1 (inverting): unknown key 'feedbak'",
@@ -81,7 +81,7 @@ class DesignReaderTest {
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1k)\", \"feedback\": \"R2(1k)\", \"opamp\": {\"openLoopGain\": 1e5}}]} ; d.json: stage 1 opamp: missing key 'gbwHz'",
         "{\"name\": \"x\", \"stages\": [{\"kind\": \"divider\", \"series\": \"R1(1k)\", \"shunt\": \"R2(1k)\", \"opamp\": {\"gbwHz\": 1e6}}]} ; d.json: stage 1 (divider): unknown key 'opamp'",
         "{\"name\": \"x\", \"tolerance\": {\"Q\": \"1%\"}, \"stages\": [{\"kind\": \"divider\", \"series\": \"R1(1k)\", \"shunt\": \"R2(1k)\"}]} ; d.json: tolerance: unknown key 'Q'",
-        "{\"name\": \"x\", \"name\": \"y\", \"stages\": []} ; d.json: invalid JSON at line 1, column",
+        "{\"name\": \"x\", \"name\": \"y\", \"stages\": []} ; d.json: key 'name' appears twice (line 1, column",
     })
     void malformedDesigns(String json, String expectedStart) {
         DesignException e = assertThrows(DesignException.class, () -> DesignReader.parse(json, "d.json"));

@@ -77,6 +77,19 @@ class BadInputCatalogueTest {
         row("design file", "designator used twice", 2, false, "twice.json: designator R1 is used twice", "analyze", "@twice.json");
         row("design file", "short-circuit network", 2, false, "short.json: stage 1 input: it is a short circuit at every frequency", "analyze", "@short.json");
         row("design file", "line break inside a quoted name", 2, false, "newline.json: stage 1: unknown kind 'a\\nb'", "analyze", "@newline.json");
+        row("circuit", "op-amp pin on an unknown node", 2, false, "c-pin.json: stage 1 (circuit) opamps U1 plus: unknown node 'x'", "analyze", "@c-pin.json");
+        row("circuit", "input on an unknown node", 2, false, "c-input.json: stage 1 (circuit) input: unknown node 'q'", "analyze", "@c-input.json");
+        row("circuit", "output on an unknown node", 2, false, "c-output.json: stage 1 (circuit) output: unknown node 'q'", "analyze", "@c-output.json");
+        row("circuit", "dangling node", 2, false, "c-dangling.json: stage 1 (circuit) branches 'a d': node 'd' is dangling", "analyze", "@c-dangling.json");
+        row("circuit", "branch from a node to itself", 2, false, "c-self.json: stage 1 (circuit) branches 'a a': a branch from node 'a' to itself", "analyze", "@c-self.json");
+        row("circuit", "the same pair of nodes twice", 2, false, "c-pair.json: stage 1 (circuit) branches 'a in': nodes a and in are already joined by branch 'in a'", "analyze", "@c-pair.json");
+        row("circuit", "input is gnd", 2, false, "c-gnd.json: stage 1 (circuit) input: the input cannot be gnd", "analyze", "@c-gnd.json");
+        row("circuit", "op-amp output tied to gnd", 2, false, "c-outgnd.json: stage 1 (circuit) opamps U1 output: an op-amp output cannot be tied to gnd", "analyze", "@c-outgnd.json");
+        row("circuit", "op-amp output tied to the input node", 2, false, "c-outin.json: stage 1 (circuit) opamps U1 output: an op-amp output cannot be tied to the input node 'in'", "analyze", "@c-outin.json");
+        row("circuit", "branch key that is not two node names", 2, false, "c-key.json: stage 1 (circuit) branches 'in-a': a branch key must be two node names", "analyze", "@c-key.json");
+        row("circuit", "ideal op-amp with no feedback path", 2, false, "c-singular.json: stage 1 (circuit): the circuit's equations are singular at every frequency", "analyze", "@c-singular.json");
+        row("circuit", "nodes with no connection to the rest", 2, false, "c-floating.json: stage 1 (circuit) branches: nodes p, q, r have no connection to gnd", "analyze", "@c-floating.json");
+        row("circuit", "duplicate JSON key", 2, false, "c-dupkey.json: stage 1 branches: key 'in a' appears twice (line 1, column 116)", "analyze", "@c-dupkey.json");
         row("design file", "missing file", 2, false, "nope.json: no such file", "analyze", "@nope.json");
         row("design file", "a folder", 2, false, "folder.json: is a folder", "analyze", "@folder.json");
         row("design file", "not UTF-8", 2, false, "latin1.json: not UTF-8 text", "analyze", "@latin1.json");
@@ -129,6 +142,20 @@ class BadInputCatalogueTest {
         design("emptynet.json", String.format(STAGE, " "));
         design("twice.json", String.format(STAGE, "R1(10k) || C1(1n)"));
         write("short.json", "{\"name\": \"n\", \"stages\": [{\"kind\": \"inverting\", \"input\": \"R1(1e-200) || R2(1e-200)\", \"feedback\": \"R3(10k)\"}]}");
+        circuit("c-pin.json", "in", "out", "\"in a\": \"R1(10k)\", \"a out\": \"R2(10k)\"", "\"U1\": {\"plus\": \"x\", \"minus\": \"a\", \"output\": \"out\"}");
+        circuit("c-input.json", "q", "out", "\"in out\": \"R1(10k)\", \"out gnd\": \"R2(10k)\"", "");
+        circuit("c-output.json", "in", "q", "\"in out\": \"R1(10k)\", \"out gnd\": \"R2(10k)\"", "");
+        circuit("c-dangling.json", "in", "out", "\"in a\": \"R1(10k)\", \"a out\": \"R2(10k)\", \"out gnd\": \"R3(10k)\", \"a d\": \"R4(10k)\"", "");
+        circuit("c-self.json", "in", "out", "\"in a\": \"R1(10k)\", \"a a\": \"R2(10k)\"", "");
+        circuit("c-pair.json", "in", "a", "\"in a\": \"R1(10k)\", \"a in\": \"C1(1n)\", \"a gnd\": \"R2(10k)\"", "");
+        circuit("c-gnd.json", "gnd", "out", "\"gnd out\": \"R1(10k)\", \"out a\": \"R2(10k)\"", "");
+        circuit("c-outgnd.json", "in", "a", "\"in a\": \"R1(10k)\", \"a gnd\": \"R2(10k)\"", "\"U1\": {\"plus\": \"a\", \"minus\": \"a\", \"output\": \"gnd\"}");
+        circuit("c-outin.json", "in", "a", "\"in a\": \"R1(10k)\", \"a gnd\": \"R2(10k)\"", "\"U1\": {\"plus\": \"a\", \"minus\": \"in\", \"output\": \"in\"}");
+        circuit("c-key.json", "in", "a", "\"in-a\": \"R1(10k)\", \"a gnd\": \"R2(10k)\"", "");
+        circuit("c-singular.json", "in", "out", "\"in a\": \"R1(10k)\", \"a gnd\": \"R2(10k)\", \"out gnd\": \"R3(10k)\"",
+                "\"U1\": {\"plus\": \"a\", \"minus\": \"gnd\", \"output\": \"out\"}");
+        circuit("c-floating.json", "in", "out", "\"in out\": \"R1(10k)\", \"out gnd\": \"R2(10k)\", \"p q\": \"R3(1k)\", \"q r\": \"R4(1k)\", \"r p\": \"C1(1n)\"", "");
+        circuit("c-dupkey.json", "in", "out", "\"in a\": \"R1(10k)\", \"in a\": \"R2(10k)\"", "");
         write("newline.json", "{\"name\": \"n\", \"stages\": [{\"kind\": \"a\\nb\"}]}");
         Files.createDirectory(dir.resolve("folder.json"));
         Files.write(dir.resolve("latin1.json"), "{\"name\": \"caf\u00e9\"}".getBytes(StandardCharsets.ISO_8859_1));
@@ -145,6 +172,11 @@ class BadInputCatalogueTest {
         Files.write(dir.resolve("truncated.wav"), java.util.Arrays.copyOf(ok, 1000));
         Files.write(dir.resolve("adpcm.wav"), wav(2, 1, 4, 48000, 4800));
         Files.write(dir.resolve("exists.wav"), "old content".getBytes(StandardCharsets.US_ASCII));
+    }
+
+    private static void circuit(String name, String input, String output, String branches, String opamps) throws IOException {
+        write(name, "{\"name\": \"n\", \"stages\": [{\"kind\": \"circuit\", \"input\": \"" + input + "\", \"output\": \""
+                + output + "\", \"branches\": {" + branches + "}" + (opamps.isEmpty() ? "" : ", \"opamps\": {" + opamps + "}") + "}]}");
     }
 
     private static void design(String name, String text) throws IOException {

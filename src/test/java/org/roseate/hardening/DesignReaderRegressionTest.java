@@ -38,7 +38,7 @@ class DesignReaderRegressionTest {
     void escapedCharacterStaysVisible() {
         DesignException e = assertThrows(DesignException.class,
                 () -> DesignReader.parse("{\"name\": \"n\", \"stages\": [{\"kind\": \"a\\nb\"}]}", "d.json"));
-        assertEquals("d.json: stage 1: unknown kind 'a\\nb'; expected inverting, noninverting or divider", e.getMessage());
+        assertEquals("d.json: stage 1: unknown kind 'a\\nb'; expected inverting, noninverting, divider or circuit", e.getMessage());
     }
 
     /**
