@@ -41,6 +41,7 @@ public final class NoiseBudget {
     private final List<String> contributors = new ArrayList<>();
     private final double[] gain2Scratch;
     private final double[][][] ownScratch;
+    private double[] perScratch;
 
     private NoiseBudget(Design design, String sourceName) {
         this.design = design;
@@ -130,7 +131,10 @@ public final class NoiseBudget {
 
     /** The total output density at {@code hz}, V²/Hz. */
     public double outputDensitySquared(double hz) {
-        return evaluate(hz, new double[contributors.size()], null);
+        if (perScratch == null) {
+            perScratch = new double[contributors.size()];
+        }
+        return evaluate(hz, perScratch, null);
     }
 
     /** At {@code hz}: the output density's source part and the circuit's own part, V²/Hz ({source, self}). */
