@@ -21,7 +21,9 @@ import org.roseate.circuit.Stage;
  * <p>Formulas, with G = Zf/Zin (inverting) or Zf/Zg (non-inverting) and the single-pole op-amp
  * A(s) = A0/(1 + s·τ), τ = A0/(2π·GBW): inverting H = −G/(1 + (1 + G)/A), ideal −G;
  * non-inverting H = (1 + G)/(1 + (1 + G)/A), ideal 1 + G; divider H = Zsh/(Zse + Zsh) with the
- * load in parallel with the shunt. Immutable and thread-safe.
+ * load in parallel with the shunt. A {@code circuit} stage is evaluated by its {@link NodalModel}
+ * (modified nodal analysis), whose rational function comes from the nodal determinant. Immutable
+ * and thread-safe.
  */
 public final class StageModel {
     private enum Kind { INVERTING, NONINVERTING, DIVIDER, CIRCUIT }

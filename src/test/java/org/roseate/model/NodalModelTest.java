@@ -92,4 +92,67 @@ class NodalModelTest {
         assertEquals(q, poles.get(0).q(), 1e-6 * q);
         assertEquals(1.0, m.response(0.01).abs(), 1e-6);
     }
+
+    /**
+     * The README's table of second-order sections states f0 and Q for each example; each row is
+     * read from README.md, solved, and its stated figures must be the model's pole pair rounded as
+     * printed (so the table cannot drift from the program).
+     */
+    @Test
+    void readmeSectionTableIsTrue() throws Exception {
+        java.util.regex.Pattern row = java.util.regex.Pattern.compile(
+                "^\\| [^|]+ \\| `(\\{.*\\})`, `(\\{.*\\})` \\| ([0-9.]+) (k?)Hz, ([0-9.]+) \\|$");
+        int rows = 0;
+        for (String line : Files.readAllLines(Path.of("README.md"))) {
+            java.util.regex.Matcher m = row.matcher(line);
+            if (!m.matches()) {
+                continue;
+            }
+            rows++;
+            CircuitModel c = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\", \"branches\": "
+                    + m.group(1) + ", \"opamps\": " + m.group(2) + "}");
+            List<Root> pair = c.poles().stream().filter(r -> !r.isReal()).toList();
+            assertEquals(1, pair.size(), line);
+            String f0 = m.group(3);
+            double scale = m.group(4).isEmpty() ? 1 : 1000;
+            int decimals = f0.contains(".") ? f0.length() - f0.indexOf('.') - 1 : 0;
+            assertEquals(Double.parseDouble(f0), pair.get(0).hz() / scale, 0.5 * Math.pow(10, -decimals) + 1e-12, line);
+            String q = m.group(5);
+            int qDecimals = q.length() - q.indexOf('.') - 1;
+            assertEquals(Double.parseDouble(q), pair.get(0).q(), 0.5 * Math.pow(10, -qDecimals) + 1e-12, line);
+        }
+        assertEquals(4, rows, "the README's four second-order sections");
+    }
+
+    /**
+     * The adjoint API for noise budgets, against circuit-theory results (common practice, any
+     * circuits text): a current into the middle of a divider R1 (from the driven input) and R2 sees
+     * R1 ‖ R2; a voltage in series with the plus input of an inverting or non-inverting stage sees
+     * the noise gain 1 + Rf/Rg; a branch's impedance is its network's.
+     */
+    @Test
+    void adjointTransfersMatchCircuitTheory() {
+        CircuitModel div = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
+                + " \"branches\": {\"in out\": \"R1(10k)\", \"out gnd\": \"R2(30k)\"}}");
+        NodalModel m = div.stages().get(0).nodal().orElseThrow();
+        NodalModel.Solution s = m.solve(1000);
+        // 1e-12 relative: one small LU in double precision.
+        assertEquals(7500, s.currentToOutputOhms("out", "gnd").re(), 7500 * 1e-12);
+        assertEquals(0, s.currentToOutputOhms("out", "gnd").im(), 1e-9);
+        assertEquals(0, s.currentToOutputOhms("in", "gnd").abs(), 1e-12, "the source holds the input node");
+        assertEquals(0.75, s.output().re(), 1e-12);
+        CircuitModel inv = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
+                + " \"branches\": {\"in m\": \"R1(10k)\", \"m out\": \"R2(47k)\"},"
+                + " \"opamps\": {\"U1\": {\"plus\": \"gnd\", \"minus\": \"m\", \"output\": \"out\"}}}");
+        NodalModel.Solution si = inv.stages().get(0).nodal().orElseThrow().solve(1000);
+        assertEquals(1 + 47.0 / 10, si.opampPlusVoltageToOutput("U1").re(), 1e-12 * 5.7);
+        assertEquals(-4.7, si.output().re(), 1e-12 * 4.7);
+        // A current into the inverting node flows through R2 only: v_out = −R2·J.
+        assertEquals(-47e3, si.currentToOutputOhms("m", "gnd").re(), 47e3 * 1e-12);
+        NodalModel lad = circuit("{\"kind\": \"circuit\", \"input\": \"in\", \"output\": \"out\","
+                + " \"branches\": {\"in out\": \"R1(10k)\", \"out gnd\": \"R2(1k) + C1(1u)\"}}").stages().get(0).nodal().orElseThrow();
+        Complex z = lad.branchImpedance("out gnd", 100);
+        assertEquals(1000, z.re(), 1e-9);
+        assertEquals(-1 / (2 * Math.PI * 100 * 1e-6), z.im(), 1e-9);
+    }
 }
