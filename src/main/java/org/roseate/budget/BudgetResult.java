@@ -65,9 +65,9 @@ public record BudgetResult(double loHz, double hiHz, double temperatureC, boolea
     public record StageReading(int stage, String node, Optional<String> opamp, double rmsV, Optional<Double> swingV,
             double slewRmsVPerUs, Optional<Double> slewVPerUs) {
 
-        /** 20·log10(swing / RMS), dB: how far the RMS sits below the rails' reach. */
+        /** 20·log10(swing / RMS), dB: how far the RMS sits below the rails' reach; empty when RMS is 0. */
         public Optional<Double> headroomDb() {
-            return swingV.map(s -> 20 * Math.log10(s / rmsV));
+            return swingV.filter(s -> rmsV > 0).map(s -> 20 * Math.log10(s / rmsV));
         }
 
         /** P(|v| &gt; swing) for a Gaussian voltage of this RMS: erfc(swing/(√2·RMS)). */
