@@ -43,7 +43,11 @@ public final class DesignReader {
             .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
             .enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
             .build();
-    private static final Set<String> TOP_KEYS = Set.of("name", "description", "stages", "tolerance");
+    private static final Set<String> TOP_KEYS = Set.of("name", "description", "stages", "tolerance", "source",
+            "temperatureC");
+    /** The op-amp keys for noise and limits, read by {@link #opAmpNoise}. */
+    private static final List<String> NOISE_KEYS = List.of("enVPerRtHz", "inAPerRtHz", "enCornerHz", "inCornerHz", "swingV",
+            "slewVPerUs");
 
     private final String source;
 
@@ -121,7 +125,53 @@ public final class DesignReader {
         }
         checkDuplicateDesignators(stages);
         Map<String, Tolerance> tolerances = tolerances(root.get("tolerance"), stages);
-        return new Design(name, description, stages, tolerances);
+        Optional<SourceNoise> noiseSource = sourceNoise(root.get("source"));
+        double temperatureC = Design.DEFAULT_TEMPERATURE_C;
+        JsonNode t = root.get("temperatureC");
+        if (t != null) {
+            if (!t.isNumber()) {
+                throw fail("temperatureC: expected a number in °C, found " + describe(t));
+            }
+            temperatureC = t.asDouble();
+            if (!Double.isFinite(temperatureC) || temperatureC < -273.15 || temperatureC > 1000) {
+                throw fail("temperatureC: must be between -273.15 and 1000 °C, found " + t.asText());
+            }
+            if (temperatureC == -273.15) {
+                throw fail("temperatureC: absolute zero is out of range; expected a temperature above -273.15 °C");
+            }
+        }
+        return new Design(name, description, stages, tolerances, noiseSource, temperatureC);
+    }
+
+    /** The optional {@code "source": {"densityVPerRtHz": 150e-6, "flickerCornerHz": 250}}. */
+    private Optional<SourceNoise> sourceNoise(JsonNode n) {
+        if (n == null) {
+            return Optional.empty();
+        }
+        if (!n.isObject()) {
+            throw fail("source: expected an object such as {\"densityVPerRtHz\": 150e-6, \"flickerCornerHz\": 250}, found "
+                    + describe(n));
+        }
+        checkKeys(n, Set.of("densityVPerRtHz", "flickerCornerHz"), "source");
+        JsonNode d = n.get("densityVPerRtHz");
+        if (d == null) {
+            throw fail("source: missing key 'densityVPerRtHz' (the source's white density in V/√Hz, e.g. 150e-6)");
+        }
+        double density = positiveNumber(d, "source densityVPerRtHz");
+        JsonNode c = n.get("flickerCornerHz");
+        double corner = c == null ? 0 : nonNegativeNumber(c, "source flickerCornerHz");
+        return Optional.of(new SourceNoise(density, corner));
+    }
+
+    private double nonNegativeNumber(JsonNode n, String at) {
+        if (!n.isNumber()) {
+            throw fail(at + ": expected a number, found " + describe(n));
+        }
+        double v = n.asDouble();
+        if (!(v >= 0) || !Double.isFinite(v)) {
+            throw fail(at + ": must be a finite number >= 0, found " + n.asText());
+        }
+        return v;
     }
 
     private Stage stage(JsonNode node, int number) {
@@ -252,7 +302,7 @@ public final class DesignReader {
             throw stageFail(at + ": expected an object such as {\"plus\": \"a\", \"minus\": \"out\", \"output\": \"out\"}, found "
                     + describe(n), number, role);
         }
-        checkKeys(n, Set.of("plus", "minus", "output", "gbwHz", "openLoopGain"), at);
+        checkKeys(n, withNoiseKeys("plus", "minus", "output", "gbwHz", "openLoopGain"), at);
         String[] pins = new String[3];
         String[] names = {"plus", "minus", "output"};
         for (int i = 0; i < 3; i++) {
@@ -278,18 +328,41 @@ public final class DesignReader {
         JsonNode gbw = n.get("gbwHz");
         JsonNode a0 = n.get("openLoopGain");
         if (gbw == null) {
-            if (!idealWithoutGbw) {
+            boolean noiseOnly = NOISE_KEYS.stream().anyMatch(n::has) && a0 == null;
+            if (!idealWithoutGbw && !noiseOnly) {
                 throw fail(at + ": missing key 'gbwHz' (gain-bandwidth product in Hz, e.g. 1e6)");
             }
             if (a0 != null) {
                 throw stageFail(at + " openLoopGain: needs gbwHz as well (without gbwHz the op-amp is ideal)", number,
                         role + PATH_SEPARATOR + "openLoopGain");
             }
-            return OpAmp.IDEAL;
+            return OpAmp.IDEAL.withNoise(opAmpNoise(n, at));
         }
         double gbwHz = positiveNumber(gbw, at + " gbwHz");
         double gain = a0 == null ? OpAmp.DEFAULT_OPEN_LOOP_GAIN : positiveNumber(a0, at + " openLoopGain");
-        return new OpAmp(gbwHz, gain);
+        return new OpAmp(gbwHz, gain, opAmpNoise(n, at));
+    }
+
+    private static Set<String> withNoiseKeys(String... keys) {
+        Set<String> s = new java.util.HashSet<>(List.of(keys));
+        s.addAll(NOISE_KEYS);
+        return s;
+    }
+
+    /**
+     * The noise and limit keys of an op-amp object: {@code enVPerRtHz}, {@code inAPerRtHz} (white
+     * densities, ≥ 0), {@code enCornerHz}, {@code inCornerHz} (1/f corners, ≥ 0), {@code swingV}
+     * (peak output swing, &gt; 0), {@code slewVPerUs} (&gt; 0); each optional.
+     */
+    private OpAmp.Noise opAmpNoise(JsonNode n, String at) {
+        double[] v = {0, 0, 0, 0, Double.NaN, Double.NaN};
+        for (int i = 0; i < NOISE_KEYS.size(); i++) {
+            JsonNode k = n.get(NOISE_KEYS.get(i));
+            if (k != null) {
+                v[i] = i < 4 ? nonNegativeNumber(k, at + " " + NOISE_KEYS.get(i)) : positiveNumber(k, at + " " + NOISE_KEYS.get(i));
+            }
+        }
+        return new OpAmp.Noise(v[0], v[1], v[2], v[3], v[4], v[5]);
     }
 
     private String nodeName(JsonNode stage, String key, String at, int number) {
@@ -315,7 +388,7 @@ public final class DesignReader {
         if (!n.isObject()) {
             throw fail(at + ": expected an object such as {\"gbwHz\": 1e6, \"openLoopGain\": 1e5}, found " + describe(n));
         }
-        checkKeys(n, Set.of("gbwHz", "openLoopGain"), at);
+        checkKeys(n, withNoiseKeys("gbwHz", "openLoopGain"), at);
         return Optional.of(opAmpModel(n, at, number, "opamp", false));
     }
 

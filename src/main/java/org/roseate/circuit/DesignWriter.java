@@ -28,6 +28,14 @@ public final class DesignWriter {
                 tol.put(e.getKey(), e.getValue().toString());
             }
         }
+        design.source().ifPresent(src -> {
+            ObjectNode o = root.putObject("source");
+            o.put("densityVPerRtHz", src.densityVPerRtHz());
+            o.put("flickerCornerHz", src.flickerCornerHz());
+        });
+        if (design.temperatureC() != Design.DEFAULT_TEMPERATURE_C) {
+            root.put("temperatureC", design.temperatureC());
+        }
         ArrayNode stages = root.putArray("stages");
         for (Stage s : design.stages()) {
             ObjectNode st = stages.addObject();
@@ -64,6 +72,19 @@ public final class DesignWriter {
         if (!op.isIdeal()) {
             o.put("gbwHz", op.gbwHz());
             o.put("openLoopGain", op.openLoopGain());
+        }
+        OpAmp.Noise n = op.noise();
+        putIf(o, "enVPerRtHz", n.enVPerRtHz(), n.enVPerRtHz() > 0);
+        putIf(o, "inAPerRtHz", n.inAPerRtHz(), n.inAPerRtHz() > 0);
+        putIf(o, "enCornerHz", n.enCornerHz(), n.enCornerHz() > 0);
+        putIf(o, "inCornerHz", n.inCornerHz(), n.inCornerHz() > 0);
+        putIf(o, "swingV", n.swingV(), n.hasSwing());
+        putIf(o, "slewVPerUs", n.slewVPerUs(), n.hasSlew());
+    }
+
+    private static void putIf(ObjectNode o, String key, double value, boolean given) {
+        if (given) {
+            o.put(key, value);
         }
     }
 }

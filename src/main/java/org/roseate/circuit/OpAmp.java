@@ -13,14 +13,22 @@ package org.roseate.circuit;
  *                     +∞ for the ideal op-amp
  * @param openLoopGain A0, the DC open-loop gain (ratio, not dB), &gt; 0; 1e5 when not given with a
  *                     finite GBW; +∞ exactly when GBW is +∞
+ * @param noise        input-referred noise and output limits ({@link Noise#NONE} when the file gives
+ *                     none: a noiseless op-amp with unknown swing and slew rate)
  */
-public record OpAmp(double gbwHz, double openLoopGain) {
+public record OpAmp(double gbwHz, double openLoopGain, Noise noise) {
     public static final double DEFAULT_OPEN_LOOP_GAIN = 1e5;
 
     /** The ideal op-amp: infinite gain at every frequency. */
     public static final OpAmp IDEAL = new OpAmp(Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY);
 
+    /** A gain model without noise data or limits. */
+    public OpAmp(double gbwHz, double openLoopGain) {
+        this(gbwHz, openLoopGain, Noise.NONE);
+    }
+
     public OpAmp {
+        java.util.Objects.requireNonNull(noise, "noise");
         if (!(gbwHz > 0) || Double.isNaN(gbwHz)) {
             throw new IllegalArgumentException("gbwHz=" + gbwHz + " must be > 0");
         }
@@ -36,6 +44,68 @@ public record OpAmp(double gbwHz, double openLoopGain) {
     /** A single-pole op-amp with the default open-loop gain. */
     public static OpAmp singlePole(double gbwHz) {
         return new OpAmp(gbwHz, DEFAULT_OPEN_LOOP_GAIN);
+    }
+
+    /** The same gain model with other noise data and limits. */
+    public OpAmp withNoise(Noise newNoise) {
+        return new OpAmp(gbwHz, openLoopGain, newNoise);
+    }
+
+    /**
+     * An op-amp's input-referred noise and output limits, as on a data sheet. The voltage noise is a
+     * source in series with the + input, density en²·(1 + enCornerHz/f) in V²/Hz; the current noise
+     * is an independent current from gnd into each input, in²·(1 + inCornerHz/f) in A²/Hz (the two
+     * inputs' current noises taken as uncorrelated, common practice for data-sheet figures). A value
+     * of 0 means "not given": no noise of that kind; NaN swing or slew means "not given".
+     *
+     * @param enVPerRtHz white input voltage noise density, V/√Hz, ≥ 0 (e.g. 18e-9 for a TL07x class part, from memory)
+     * @param inAPerRtHz white input current noise density, A/√Hz, ≥ 0
+     * @param enCornerHz 1/f corner of the voltage noise, Hz, ≥ 0 (0: white)
+     * @param inCornerHz 1/f corner of the current noise, Hz, ≥ 0 (0: white)
+     * @param swingV     peak output swing (symmetric about 0 V), V, &gt; 0, or NaN when not given
+     * @param slewVPerUs slew rate, V/µs, &gt; 0, or NaN when not given
+     */
+    public record Noise(double enVPerRtHz, double inAPerRtHz, double enCornerHz, double inCornerHz, double swingV,
+            double slewVPerUs) {
+        /** No noise data and no limits. */
+        public static final Noise NONE = new Noise(0, 0, 0, 0, Double.NaN, Double.NaN);
+
+        public Noise {
+            for (double v : new double[] {enVPerRtHz, inAPerRtHz, enCornerHz, inCornerHz}) {
+                if (!(v >= 0) || !Double.isFinite(v)) {
+                    throw new IllegalArgumentException("noise densities and corners must be finite and >= 0");
+                }
+            }
+            if (!Double.isNaN(swingV) && !(swingV > 0 && Double.isFinite(swingV))) {
+                throw new IllegalArgumentException("swingV=" + swingV + " must be finite and > 0");
+            }
+            if (!Double.isNaN(slewVPerUs) && !(slewVPerUs > 0 && Double.isFinite(slewVPerUs))) {
+                throw new IllegalArgumentException("slewVPerUs=" + slewVPerUs + " must be finite and > 0");
+            }
+        }
+
+        /** en²·(1 + enCornerHz/f), V²/Hz. */
+        public double voltageDensitySquared(double hz) {
+            return enVPerRtHz * enVPerRtHz * (1 + enCornerHz / hz);
+        }
+
+        /** in²·(1 + inCornerHz/f), A²/Hz, at each input. */
+        public double currentDensitySquared(double hz) {
+            return inAPerRtHz * inAPerRtHz * (1 + inCornerHz / hz);
+        }
+
+        public boolean hasSwing() {
+            return !Double.isNaN(swingV);
+        }
+
+        public boolean hasSlew() {
+            return !Double.isNaN(slewVPerUs);
+        }
+
+        /** True when nothing is given. */
+        public boolean isNone() {
+            return equals(NONE);
+        }
     }
 
     /** True for the ideal op-amp (a nullor). */

@@ -53,6 +53,10 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--points-per-decade", defaultValue = "20", description = "density of the default response grid (default: ${DEFAULT-VALUE})")
     int pointsPerDecade;
 
+    @Option(names = "--with-source", description = "judge source × circuit: the design file's \"source\" density shape "
+            + "d²·(1 + fc/f) times |H|² (levels relative to d²)")
+    boolean withSource;
+
     @Option(names = "--plot", paramLabel = "FILE.png|FILE.svg", description = "also draw the response, deviation and band bars")
     Path plot;
 
@@ -75,7 +79,8 @@ final class AnalyzeCommand implements Callable<Integer> {
         CircuitModel model = Inputs.model(file);
         DesignAnalysis a;
         try {
-            a = DesignAnalysis.of(model, r, target, fraction, points);
+            a = withSource ? DesignAnalysis.withSource(model, r, target, fraction, points, sourceShape(model))
+                    : DesignAnalysis.of(model, r, target, fraction, points);
         } catch (IllegalArgumentException e) {
             throw new UserInputException(e.getMessage());
         }
@@ -98,12 +103,24 @@ final class AnalyzeCommand implements Callable<Integer> {
         return 0;
     }
 
+    /** The source's relative shape 1 + fc/f; refused when the design file has no source. */
+    private java.util.function.DoubleUnaryOperator sourceShape(CircuitModel model) {
+        org.roseate.circuit.SourceNoise src = model.design().source().orElseThrow(() -> new UserInputException(
+                file.getFileName() + ": --with-source needs a \"source\" in the design file, such as "
+                        + "\"source\": {\"densityVPerRtHz\": 150e-6, \"flickerCornerHz\": 250}"));
+        return src::shape;
+    }
+
     private String table(DesignAnalysis a, CircuitModel model) {
         StringBuilder sb = new StringBuilder();
         SlopeFit s = a.slope();
         sb.append("Design: ").append(a.name()).append(" (").append(file.getFileName()).append(")\n");
         if (!model.design().description().isBlank()) {
             sb.append("  ").append(model.design().description()).append('\n');
+        }
+        if (withSource) {
+            model.design().source().ifPresent(src -> sb.append(Numbers.f("Judged with the source: levels of source × circuit "
+                    + "relative to the source's white density (1/f corner %s Hz)%n", Numbers.plain(src.flickerCornerHz()))));
         }
         sb.append(Numbers.f("Target: %s over %s – %s, %s bands%n", a.target().describe(),
                 Numbers.hz(a.range().loHz()), Numbers.hz(a.range().hiHz()), a.fraction().displayName()));
@@ -243,6 +260,7 @@ final class AnalyzeCommand implements Callable<Integer> {
         ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
         try {
             ObjectNode root = analysisJson(m, a, model);
+            root.put("withSource", withSource);
             if (fidelity != null) {
                 ObjectNode f = root.putObject("fidelity");
                 f.put("rateHz", fidelity.outputRateHz());

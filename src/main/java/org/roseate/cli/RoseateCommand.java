@@ -14,7 +14,7 @@ import picocli.CommandLine.Command;
             "Run without arguments to open the window."},
         subcommands = {AnalyzeCommand.class, RenderCommand.class, PlayCommand.class, DevicesCommand.class,
             MeasureCommand.class, DiagnoseCommand.class, ListenTestCommand.class, FitCommand.class, ToleranceCommand.class,
-            CompareCommand.class, PartsCommand.class,
+            CompareCommand.class, PartsCommand.class, BudgetCommand.class,
             CommandLine.HelpCommand.class})
 public final class RoseateCommand implements Runnable {
     /** Exit status for bad input: files, values, arguments. */

@@ -34,6 +34,34 @@ public record DesignAnalysis(String name, FrequencyRange range, TargetSlope targ
                 bandLevels(model, table, target), model.poles(), model.zeros());
     }
 
+    /**
+     * As {@link #of}, judging the shape of what comes out of the design driven by a source whose
+     * density has the relative shape {@code sourceShape(f)} (dimensionless, &gt; 0; e.g.
+     * 1 + fc/f for a junction source with a 1/f corner): power |H(f)|²·shape(f), response
+     * magnitude |H|·√shape with H's phase.
+     */
+    public static DesignAnalysis withSource(CircuitModel model, FrequencyRange range, TargetSlope target,
+            BandFraction fraction, double[] responseHz, java.util.function.DoubleUnaryOperator sourceShape) {
+        FrequencyResponse h = model.response(responseHz);
+        double[] re = h.re().clone();
+        double[] im = h.im().clone();
+        for (int i = 0; i < re.length; i++) {
+            double g = Math.sqrt(sourceShape.applyAsDouble(responseHz[i]));
+            re[i] *= g;
+            im[i] *= g;
+        }
+        java.util.function.DoubleUnaryOperator power = hz -> model.magnitudeSquared(hz) * sourceShape.applyAsDouble(hz);
+        SlopeFit slope = SlopeFit.of(hz -> 10 * Math.log10(power.applyAsDouble(hz)), range, target);
+        BandTable table = BandTable.of(fraction, range.loHz(), range.hiHz());
+        List<Band> bands = table.bands();
+        double[] levels = new double[bands.size()];
+        for (int i = 0; i < levels.length; i++) {
+            levels[i] = BandPower.levelDb(power, bands.get(i).lowHz(), bands.get(i).highHz());
+        }
+        return new DesignAnalysis(model.design().name(), range, target, fraction, new FrequencyResponse(responseHz.clone(), re, im),
+                slope, BandComparison.of(table, levels, target), model.poles(), model.zeros());
+    }
+
     /** Model band levels: 10·log10 ∫|H(f)|² df over each band. */
     public static BandComparison bandLevels(CircuitModel model, BandTable table, TargetSlope target) {
         List<Band> bands = table.bands();
