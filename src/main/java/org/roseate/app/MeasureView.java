@@ -424,10 +424,10 @@ final class MeasureView {
 
     private void showTransfer(MeasureResult t) {
         bands.setTitle(titleFor(t.bands()) + ": transfer deviation from the target " + t.request().target().describe()
-                + " (untrusted bands: no whisker)");
+                + "");
         bands.show(t.bands().stream().map(l -> l.band().label()).toList(),
                 t.bands().stream().mapToDouble(BandResult::deviationDb).toArray(),
-                t.bands().stream().mapToDouble(b -> b.trusted() ? b.uncertaintyDb() : Double.NaN).toArray(), designMarks());
+                null, designMarks());
         List<ResponsePoint> pts = t.points();
         int ref = 0;
         for (int i = 0; i < pts.size(); i++) {
