@@ -392,22 +392,31 @@ final class MeasureView {
         String warn = o.warnings().isEmpty() ? "" : " " + o.warnings().size() + " warning" + (o.warnings().size() == 1 ? "" : "s")
                 + ": see the marks.";
         if (o.mode() == MeasureMode.NOISE_SOURCE) {
-            return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages, T_eff %.1f s, %.3g Hz bins, %s. Slope %+.2f ± %.2f "
-                    + "dB/octave (target %+.2f); peak band deviation %.2f ± %.2f dB; levels in %s; RMS %.1f dBFS, DC %+.2g FS.%s%s",
+            return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages, T_eff %.1f s, %.3g Hz bins, %s. Slope %s "
+                    + "dB/octave (target %+.2f); peak band deviation %s dB; levels in %s; RMS %.1f dBFS, DC %+.2g FS.%s%s",
                     org.roseate.measure.MeasureTable.displayName(o.source()), state(o),
                     o.secondsAnalysed(), o.averages(), o.effectiveSeconds(), o.resolutionHz(), o.request().reader(),
-                    o.slopeDbPerOctave().value(), o.slopeDbPerOctave().uncertainty(), o.request().target().dbPerOctave(),
-                    o.maxBandDeviationDb().value(), o.maxBandDeviationDb().uncertainty(), o.levelUnit(),
+                    estimate(o.slopeDbPerOctave(), "%+.2f"), o.request().target().dbPerOctave(),
+                    estimate(o.maxBandDeviationDb(), "%.2f"), o.levelUnit(),
                     o.measuredChannel().rmsDbfs(), o.measuredChannel().dcOffsetFs(), clip, warn);
         }
         long trusted = o.points().stream().filter(ResponsePoint::trusted).count();
         long bandsTrusted = o.bands().stream().filter(BandResult::trusted).count();
-        return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages%s. Slope %+.2f ± %.2f dB/octave; peak band deviation "
-                + "%.2f ± %.2f dB; %d of %d bands and %d of %d points with γ² ≥ %.2f; levels are gain in dB re 1.%s%s",
+        return String.format(Locale.ROOT, "%s%s: %.1f s, %d averages%s. Slope %s dB/octave; peak band deviation "
+                + "%s dB; %d of %d bands and %d of %d points with γ² ≥ %.2f; levels are gain in dB re 1.%s%s",
                 org.roseate.measure.MeasureTable.displayName(o.source()), state(o),
-                o.secondsAnalysed(), o.averages(), calibration != null ? ", calibrated" : "", o.slopeDbPerOctave().value(),
-                o.slopeDbPerOctave().uncertainty(), o.maxBandDeviationDb().value(), o.maxBandDeviationDb().uncertainty(),
+                o.secondsAnalysed(), o.averages(), calibration != null ? ", calibrated" : "",
+                estimate(o.slopeDbPerOctave(), "%+.2f"), estimate(o.maxBandDeviationDb(), "%.2f"),
                 bandsTrusted, o.bands().size(), trusted, o.points().size(), o.request().coherenceThreshold(), clip, warn);
+    }
+
+    /** "value ± u", or "—" when the figure does not exist (too few counted bands). */
+    private static String estimate(org.roseate.measure.Estimate e, String fmt) {
+        if (Double.isNaN(e.value())) {
+            return "—";
+        }
+        return String.format(Locale.ROOT, fmt, e.value())
+                + (Double.isNaN(e.uncertainty()) ? "" : String.format(Locale.ROOT, " ± %.2f", e.uncertainty()));
     }
 
     private void showNoise(MeasureResult n) {
@@ -435,10 +444,10 @@ final class MeasureView {
 
     private void showTransfer(MeasureResult t) {
         bands.setTitle(titleFor(t.bands()) + ": transfer deviation from the target " + t.request().target().describe()
-                + " (untrusted bands: no whisker)");
+                + "");
         bands.show(t.bands().stream().map(l -> l.band().label()).toList(),
                 t.bands().stream().mapToDouble(BandResult::deviationDb).toArray(),
-                t.bands().stream().mapToDouble(b -> b.trusted() ? b.uncertaintyDb() : Double.NaN).toArray(), designMarks());
+                null, designMarks());
         List<ResponsePoint> pts = t.points();
         int ref = 0;
         for (int i = 0; i < pts.size(); i++) {

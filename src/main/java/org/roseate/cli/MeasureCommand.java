@@ -15,7 +15,6 @@ import org.roseate.measure.FileMeasure;
 import org.roseate.measure.MeasureCsv;
 import org.roseate.measure.MeasureException;
 import org.roseate.measure.MeasureJson;
-import org.roseate.measure.MeasureMode;
 import org.roseate.measure.MeasureRequest;
 import org.roseate.measure.MeasureResult;
 import org.roseate.measure.MeasureTable;

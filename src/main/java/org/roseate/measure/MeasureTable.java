@@ -48,11 +48,16 @@ public final class MeasureTable {
         if (!Double.isNaN(r.calibrationCornerHz())) {
             sb.append(f("Calibration low corner (-1 dB): %.4g Hz%n", r.calibrationCornerHz()));
         }
-        sb.append(f("Least-squares slope:   %+.3f%s dB/octave%s, over %d counted bands%n", r.slopeDbPerOctave().value(),
-                pm(r.slopeDbPerOctave(), "%.3f"), q.target() == null ? "" : f(" (target %+.3f)", q.target().dbPerOctave()),
-                r.countedBands()));
+        if (Double.isNaN(r.slopeDbPerOctave().value())) {
+            sb.append(f("Least-squares slope:   — (%d counted bands; it needs two)%n", r.countedBands()));
+        } else {
+            sb.append(f("Least-squares slope:   %+.3f%s dB/octave%s, over %d counted bands%n", r.slopeDbPerOctave().value(),
+                    pm(r.slopeDbPerOctave(), "%.3f"), q.target() == null ? "" : f(" (target %+.3f)", q.target().dbPerOctave()),
+                    r.countedBands()));
+        }
         if (r.hasTarget()) {
-            sb.append(f("Peak band deviation:   %.3f%s dB%n", r.maxBandDeviationDb().value(), pm(r.maxBandDeviationDb(), "%.3f")));
+            sb.append(Double.isNaN(r.maxBandDeviationDb().value()) ? f("Peak band deviation:   — (no counted band)%n")
+                    : f("Peak band deviation:   %.3f%s dB%n", r.maxBandDeviationDb().value(), pm(r.maxBandDeviationDb(), "%.3f")));
         }
         if (r.hasDesign()) {
             sb.append(f("Against the design:    shape difference, the weighted mean (%+.3f dB) removed%n", r.designOffsetDb()));
