@@ -34,9 +34,9 @@ import javax.sound.sampled.AudioSystem;
  *
  * <p>On the capture thread our code allocates nothing, takes no lock of ours, logs nothing and
  * touches no file. TarsosDSP's dispatcher loop, in the steady state, allocates one iterator over its
- * processor list per block (a {@code CopyOnWriteArrayList} iterator, a few tens of bytes, which the
- * JIT's escape analysis may remove) and converts each block to floats that nothing reads; the
- * dispatcher's own log calls happen only on a read error. The ring is single-producer
+ * processor list per block (a {@code CopyOnWriteArrayList} iterator: 24 bytes per block measured on
+ * JDK 17 with compressed references, {@code CaptureEngineTest}) and converts each block to floats
+ * that nothing reads; the dispatcher's own log calls happen only on a read error. The ring is single-producer
  * single-consumer: the producer publishes a volatile write count after the samples, the consumer a
  * volatile read count after taking them. When the consumer falls behind by the whole ring, the
  * newest block is dropped and counted ({@link #droppedFrames()}); the ring is never overwritten
