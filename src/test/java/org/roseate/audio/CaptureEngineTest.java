@@ -90,6 +90,14 @@ class CaptureEngineTest {
         assertTrue(f.getMessage().contains("'fake-in'"), f.getMessage());
         assertEquals(0, e.droppedFrames(), "a ring that holds everything drops nothing");
         assertEquals(in.frames, n, "every frame the device gave was delivered");
+        // The stall closed the line; the stream under the dispatcher reports its end and the capture
+        // thread finishes on its own (it does not spin on a closed line). 2 s: generous for a thread
+        // that only has to return from one read.
+        long t1 = System.nanoTime();
+        while (captureThreadAlive("fake-in") && System.nanoTime() - t1 < 2_000_000_000L) {
+            Thread.sleep(10);
+        }
+        assertTrue(!captureThreadAlive("fake-in"), "the capture thread ends after a stall");
         for (int i = 0; i < n * 2; i++) {
             // code / 32768 (the package's sample convention), codes counting up and wrapping at 16 bits
             assertEquals((short) i / 32768.0, got[i], 0.0, "sample " + i);
@@ -222,5 +230,10 @@ class CaptureEngineTest {
         double perBlock = (bytes1 - bytes0) / (double) blocks;
         System.out.printf("capture thread: %.2f bytes allocated per block over %d blocks%n", perBlock, blocks);
         assertTrue(perBlock <= 64, perBlock + " bytes per block");
+    }
+
+    private static boolean captureThreadAlive(String device) {
+        return Thread.getAllStackTraces().keySet().stream()
+                .anyMatch(t -> t.getName().equals("roseate-capture " + device) && t.isAlive());
     }
 }
