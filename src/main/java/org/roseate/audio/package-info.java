@@ -8,8 +8,10 @@
  * an n-bit PCM code c maps to c / 2<sup>n−1</sup>.
  *
  * <p>Threads: one render thread per {@link org.roseate.audio.PlaybackEngine} and one capture thread
- * per {@link org.roseate.audio.CaptureEngine}, each with a watchdog thread beside it. The render and
- * capture loops allocate nothing, take no lock of ours, log nothing and touch no file; control
- * reaches them through {@link java.util.concurrent.atomic.AtomicReference} and volatile fields.
+ * per {@link org.roseate.audio.CaptureEngine} (running TarsosDSP's {@code AudioDispatcher}), each with
+ * a watchdog thread beside it. The render and capture loops take no lock of ours, log nothing and
+ * touch no file; our code in them allocates nothing (the dispatcher allocates one list iterator per
+ * capture block); control reaches them through
+ * {@link java.util.concurrent.atomic.AtomicReference} and volatile fields.
  */
 package org.roseate.audio;

@@ -4,7 +4,17 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import be.tarsos.dsp.AudioDispatcher;
+import be.tarsos.dsp.AudioEvent;
+import be.tarsos.dsp.AudioProcessor;
+import be.tarsos.dsp.io.jvm.JVMAudioInputStream;
+import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;
+import java.lang.management.ManagementFactory;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import javax.sound.sampled.AudioInputStream;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
@@ -80,6 +90,14 @@ class CaptureEngineTest {
         assertTrue(f.getMessage().contains("'fake-in'"), f.getMessage());
         assertEquals(0, e.droppedFrames(), "a ring that holds everything drops nothing");
         assertEquals(in.frames, n, "every frame the device gave was delivered");
+        // The stall closed the line; the stream under the dispatcher reports its end and the capture
+        // thread finishes on its own (it does not spin on a closed line). 2 s: generous for a thread
+        // that only has to return from one read.
+        long t1 = System.nanoTime();
+        while (captureThreadAlive("fake-in") && System.nanoTime() - t1 < 2_000_000_000L) {
+            Thread.sleep(10);
+        }
+        assertTrue(!captureThreadAlive("fake-in"), "the capture thread ends after a stall");
         for (int i = 0; i < n * 2; i++) {
             // code / 32768 (the package's sample convention), codes counting up and wrapping at 16 bits
             assertEquals((short) i / 32768.0, got[i], 0.0, "sample " + i);
@@ -125,5 +143,97 @@ class CaptureEngineTest {
                 assertEquals(i / 32768.0, x[i], 0.0, "sample " + i);
             }
         }
+    }
+
+    /**
+     * Why the engine decodes the raw bytes: in TarsosDSP 2.4 a dispatcher of buffer size N reads N
+     * frames of bytes per block but converts only N samples to floats, so for stereo the event's
+     * float buffer holds the first half of each block and the second half is never seen there.
+     * It also scales 16-bit codes by 1/32767 where this package uses 1/32768.
+     * (Read from the library's bytecode: {@code setStepSizeAndOverlap} allocates {@code float[N]} and
+     * {@code byte[N * frameSize]}; this checks the consequence.)
+     */
+    @Test
+    void tarsosFloatBufferHoldsOnlyTheFirstHalfOfAStereoBlock() {
+        int blockFrames = 64;
+        int blocks = 3;
+        short[] codes = new short[blocks * blockFrames * 2];
+        byte[] pcm = new byte[codes.length * 2];
+        for (int i = 0; i < codes.length; i++) {
+            codes[i] = (short) (100 * i);
+            pcm[2 * i] = (byte) codes[i];
+            pcm[2 * i + 1] = (byte) (codes[i] >> 8);
+        }
+        AudioInputStream stream = new AudioInputStream(new ByteArrayInputStream(pcm), Devices.format(48000, 2, 16),
+                codes.length / 2);
+        AudioDispatcher d = new AudioDispatcher(new JVMAudioInputStream(stream), blockFrames, 0);
+        List<float[]> seen = new ArrayList<>();
+        d.addAudioProcessor(new AudioProcessor() {
+            @Override public boolean process(AudioEvent e) {
+                seen.add(e.getFloatBuffer().clone());
+                return true;
+            }
+
+            @Override public void processingFinished() { }
+        });
+        d.run();
+        assertEquals(blocks, seen.size(), "one event per block of " + blockFrames + " frames");
+        for (int b = 0; b < blocks; b++) {
+            float[] f = seen.get(b);
+            assertEquals(blockFrames, f.length, "floats per event: one per frame, not one per sample");
+            int first = b * blockFrames * 2;
+            for (int k = 0; k < f.length; k++) {
+                // The library scales 16-bit codes by 1/32767 (not the package's 1/32768, a second reason
+                // to decode the bytes ourselves), so recover the code by that scale.
+                assertEquals(codes[first + k], Math.round(f[k] * 32767.0), "block " + b + " float " + k);
+            }
+        }
+    }
+
+    /**
+     * What the capture thread allocates in its steady state, read from the JVM's per-thread
+     * allocation counter: our code nothing, TarsosDSP's dispatcher loop one iterator over its
+     * processor list per block (a {@code CopyOnWriteArrayList} iterator: 24 bytes with compressed
+     * references, more without; the JIT may remove it). The bound of 64 bytes per block leaves room
+     * for that iterator on any 64-bit layout and fails for any array or event allocated per block.
+     */
+    @Test
+    void captureThreadAllocatesAtMostTheDispatchersIteratorPerBlock() throws Exception {
+        com.sun.management.ThreadMXBean mx = (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+        RampInput in = new RampInput(2, Long.MAX_VALUE);
+        CaptureEngine e = new CaptureEngine(in, 8192, 5.0);
+        e.start();
+        Thread t = null;
+        for (Map.Entry<Thread, StackTraceElement[]> en : Thread.getAllStackTraces().entrySet()) {
+            if (en.getKey().getName().equals("roseate-capture fake-in")) {
+                t = en.getKey();
+            }
+        }
+        assertNotNull(t, "capture thread");
+        double[] buf = new double[8192 * 2];
+        // Warm up: let the JIT compile the loop, then measure while a reader keeps the ring moving.
+        long warmEnd = System.nanoTime() + 1_000_000_000L;
+        while (System.nanoTime() < warmEnd) {
+            e.read(buf, 8192);
+        }
+        long bytes0 = mx.getThreadAllocatedBytes(t.getId());
+        long frames0 = e.framesCaptured() + e.droppedFrames();
+        long end = System.nanoTime() + 500_000_000L;
+        while (System.nanoTime() < end) {
+            e.read(buf, 8192);
+        }
+        long bytes1 = mx.getThreadAllocatedBytes(t.getId());
+        long frames1 = e.framesCaptured() + e.droppedFrames();
+        e.stop();
+        long blocks = (frames1 - frames0) / 256; // bufferFrames() 1024 / 4
+        assertTrue(blocks > 1000, "enough blocks to measure: " + blocks);
+        double perBlock = (bytes1 - bytes0) / (double) blocks;
+        System.out.printf("capture thread: %.2f bytes allocated per block over %d blocks%n", perBlock, blocks);
+        assertTrue(perBlock <= 64, perBlock + " bytes per block");
+    }
+
+    private static boolean captureThreadAlive(String device) {
+        return Thread.getAllStackTraces().keySet().stream()
+                .anyMatch(t -> t.getName().equals("roseate-capture " + device) && t.isAlive());
     }
 }
