@@ -74,6 +74,20 @@ public final class MonteCarlo {
             if (threads < 1) {
                 throw new IllegalArgumentException("threads=" + threads + " must be >= 1");
             }
+            if (design.tolerances().containsKey(ToleranceOverrides.OPAMP_GBW_KEY)) {
+                List<String> inCircuits = new ArrayList<>();
+                for (PartsList.OpAmpEntry o : PartsList.opAmps(design)) {
+                    if (design.stages().get(o.stage() - 1) instanceof org.roseate.circuit.CircuitStage) {
+                        inCircuits.add(o.name() + " in stage " + o.stage());
+                    }
+                }
+                if (!inCircuits.isEmpty()) {
+                    throw new IllegalArgumentException("the " + ToleranceOverrides.OPAMP_GBW_KEY + " tolerance (op-amp gbwHz) cannot "
+                            + "spread the op-amps of a circuit stage (" + String.join(", ", inCircuits)
+                            + "): the nodal model of a circuit stage takes each op-amp's gbwHz as written; give no " + ToleranceOverrides.OPAMP_GBW_KEY
+                            + " tolerance for this design");
+                }
+            }
         }
     }
 
@@ -195,11 +209,15 @@ public final class MonteCarlo {
         }
         Tolerance gbwTol = spec.design().tolerances().get(ToleranceOverrides.OPAMP_GBW_KEY);
         int stages = program.stageCount();
+        String[] opName = new String[stages];
+        for (PartsList.OpAmpEntry o : PartsList.opAmps(spec.design())) {
+            opName[o.stage() - 1] = o.name();
+        }
         double[] gbwTolByStage = new double[stages];
         for (int s = 0; s < stages; s++) {
             if (program.hasOpAmp(s)) {
                 gbwTolByStage[s] = gbwTol == null ? 0 : gbwTol.fraction();
-                (gbwTol == null ? exact : toleranced).add(opAmpName(s));
+                (gbwTol == null ? exact : toleranced).add(opName[s]);
             }
         }
         int nb = scorer.bandCount();
@@ -284,7 +302,7 @@ public final class MonteCarlo {
         }
         for (int s = 0; s < stages; s++) {
             if (program.hasOpAmp(s)) {
-                sens.add(sensitivity(opAmpName(s), gbwTol, bandSensitivity(scorer, w, nominal, -1, s)));
+                sens.add(sensitivity(opName[s], gbwTol, bandSensitivity(scorer, w, nominal, -1, s)));
             }
         }
         sens.sort(Comparator.comparingDouble(PartSensitivity::contributionDb)
@@ -293,7 +311,10 @@ public final class MonteCarlo {
                 Math.sqrt(y * (1 - y) / n), Scorer.halfSpread(nomDev, nb), toleranced, exact, sens);
     }
 
-    /** The name of stage s's op-amp in the sensitivity list: "U1" for the first stage. */
+    /**
+     * "U" and the 1-based stage number: the name of an older-kind stage's op-amp unless a circuit
+     * op-amp's designator takes it (then {@link PartsList#opAmps} names it, as the runs do).
+     */
     public static String opAmpName(int stage) {
         return ToleranceOverrides.OPAMP_GBW_KEY + (stage + 1);
     }
