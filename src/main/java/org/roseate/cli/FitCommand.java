@@ -107,6 +107,10 @@ final class FitCommand implements Callable<Integer> {
     @Option(names = "--pointwise-weight", defaultValue = "0.1", description = "weight of the pointwise peak in the objective (default: ${DEFAULT-VALUE})")
     double pointwiseWeight;
 
+    @Option(names = "--with-source", description = "with --from: judge source × circuit, |H|² times the design file's \"source\" "
+            + "density shape 1 + fc/f, as analyze --with-source does")
+    boolean withSource;
+
     @Option(names = {"-o", "--output"}, paramLabel = "OUT.json", description = "write the standard-value design here")
     Path output;
 
@@ -138,6 +142,9 @@ final class FitCommand implements Callable<Integer> {
         }
         if (freeInput && from == null) {
             throw new UserInputException("--free-input applies to --from only (a new ladder's input resistor is free unless --input-r fixes it)");
+        }
+        if (withSource && from == null) {
+            throw new UserInputException("--with-source applies to --from only: a new ladder has no design file with a \"source\"");
         }
         if (force && output == null) {
             throw new UserInputException("--force without -o: there is no output file to replace");
@@ -182,6 +189,10 @@ final class FitCommand implements Callable<Integer> {
         if (from != null) {
             start = DesignReader.read(from);
             CircuitModel.of(start, from.getFileName().toString());
+            if (withSource && start.source().isEmpty()) {
+                throw new UserInputException(from.getFileName() + ": --with-source needs a \"source\" in the design file, such as "
+                        + "\"source\": {\"densityVPerRtHz\": 150e-6, \"flickerCornerHz\": 250}");
+            }
             if (!freeInput) {
                 held.addAll(Topologies.inputParts(start));
             }
@@ -246,7 +257,8 @@ final class FitCommand implements Callable<Integer> {
         }
         FitSpec fs;
         try {
-            fs = new FitSpec(start, free, gain, r, target, fraction, choice, lim, n, seed, cores, pointwiseWeight);
+            fs = new FitSpec(start, free, gain, r, target, fraction, choice, lim, n, seed, cores, pointwiseWeight,
+                    withSource ? start.source() : Optional.empty());
         } catch (IllegalArgumentException e) {
             throw new UserInputException(e.getMessage());
         }
@@ -266,7 +278,8 @@ final class FitCommand implements Callable<Integer> {
                     "Values refitted by roseate fit from " + from.getFileName() + "; held: "
                             + (held.isEmpty() ? "none" : String.join(" ", held)) + ".");
         }
-        written = new Design(written.name(), written.description(), written.stages(), ToleranceOverrides.over(written, tolerances));
+        written = new Design(written.name(), written.description(), written.stages(), ToleranceOverrides.over(written, tolerances),
+                written.source(), written.temperatureC());
         PrintWriter out = spec.commandLine().getOut();
         out.print(report(res, fs, new ArrayList<>(held), inductors));
         out.flush();
@@ -313,6 +326,8 @@ final class FitCommand implements Callable<Integer> {
         sb.append(Numbers.f("Objective: band peak + %.3g × pointwise peak%s; %d starts, seed %d, %d evaluations, %.1f s%n",
                 fs.pointwiseWeight(), fs.gain().isPresent() ? Numbers.f(" + %.3g × |gain error|", Fitter.GAIN_WEIGHT) : "",
                 fs.starts(), fs.seed(), res.evaluations(), res.elapsedSeconds()));
+        fs.source().ifPresent(src -> sb.append(Numbers.f("Judged with the source: levels of source × circuit relative to the "
+                + "source's white density (1/f corner %s Hz)%n", Numbers.plain(src.flickerCornerHz()))));
         sb.append("Held (unchanged): ").append(held.isEmpty() ? "none" : String.join(" ", held)).append('\n');
         if (!inductors.isEmpty()) {
             sb.append("Inductors are held (fit frees resistors and capacitors only): ").append(String.join(" ", inductors)).append('\n');

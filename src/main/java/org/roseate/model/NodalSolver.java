@@ -135,7 +135,7 @@ public final class NodalSolver {
     }
 
     public Workspace workspace() {
-        return new Workspace(size, branchKeys.size());
+        return new Workspace(size, branchKeys.size(), opOut.length);
     }
 
     /**
@@ -161,12 +161,19 @@ public final class NodalSolver {
         /** Branch admittances times R0 (dimensionless), in {@link #branchKeys()} order. */
         public final double[] yRe;
         public final double[] yIm;
+        /**
+         * Per op-amp, in {@link #opampNames()} order, its gbwHz as a multiple of the file's (1 unless a
+         * tolerance run draws it; finite and &gt; 0): the s/(2π·GBW) term of 1/A(s) is divided by it.
+         */
+        public final double[] gbwFactor;
         double minPivotRatio;
         double detRe;
         double detIm;
         int detExponent;
 
-        Workspace(int n, int branches) {
+        Workspace(int n, int branches, int opamps) {
+            gbwFactor = new double[opamps];
+            java.util.Arrays.fill(gbwFactor, 1.0);
             re = new double[n * n];
             im = new double[n * n];
             perm = new int[n];
@@ -242,8 +249,9 @@ public final class NodalSolver {
             stampPin(w, r, opPlus[k], 1);
             stampPin(w, r, opMinus[k], -1);
             // −v_out·(1/A0 + s/(2π·GBW))
-            re[r * n + o] -= invGainDc[k] + sRe * invGainPerRadPerS[k];
-            im[r * n + o] -= sIm * invGainPerRadPerS[k];
+            double perRadPerS = invGainPerRadPerS[k] / w.gbwFactor[k];
+            re[r * n + o] -= invGainDc[k] + sRe * perRadPerS;
+            im[r * n + o] -= sIm * perRadPerS;
         }
         System.arraycopy(re, 0, w.origRe, 0, re.length);
         System.arraycopy(im, 0, w.origIm, 0, im.length);

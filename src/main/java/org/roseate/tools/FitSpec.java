@@ -3,8 +3,10 @@ package org.roseate.tools;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
+import java.util.function.DoubleUnaryOperator;
 import org.roseate.bands.BandFraction;
 import org.roseate.circuit.Design;
+import org.roseate.circuit.SourceNoise;
 import org.roseate.compare.FrequencyRange;
 import org.roseate.compare.TargetSlope;
 
@@ -27,10 +29,13 @@ import org.roseate.compare.TargetSlope;
  * @param threads         worker threads, ≥ 1 (results do not depend on it)
  * @param pointwiseWeight weight w ≥ 0 of the pointwise peak in the objective
  *                        band peak + w·pointwise peak
+ * @param source          the source whose relative density shape 1 + fc/f multiplies |H|² before
+ *                        it is judged (as {@code analyze --with-source}), or empty to judge |H|²
+ *                        alone (a white source)
  */
 public record FitSpec(Design start, List<String> free, Optional<GainHold> gain, FrequencyRange range,
         TargetSlope target, BandFraction fraction, SeriesChoice series, PartLimits limits, int starts, long seed,
-        int threads, double pointwiseWeight) {
+        int threads, double pointwiseWeight, Optional<SourceNoise> source) {
     /**
      * Default w: a tenth. The bar is the band peak; a small weight on the pointwise peak breaks
      * ties between designs with the same band peak in favour of the one with less ripple hidden
@@ -38,8 +43,16 @@ public record FitSpec(Design start, List<String> free, Optional<GainHold> gain, 
      */
     public static final double DEFAULT_POINTWISE_WEIGHT = 0.1;
 
+    /** A spec judged with a white source (|H|² alone). */
+    public FitSpec(Design start, List<String> free, Optional<GainHold> gain, FrequencyRange range,
+            TargetSlope target, BandFraction fraction, SeriesChoice series, PartLimits limits, int starts, long seed,
+            int threads, double pointwiseWeight) {
+        this(start, free, gain, range, target, fraction, series, limits, starts, seed, threads, pointwiseWeight, Optional.empty());
+    }
+
     public FitSpec {
         Objects.requireNonNull(start, "start");
+        Objects.requireNonNull(source, "source");
         free = List.copyOf(free);
         Objects.requireNonNull(gain, "gain");
         Objects.requireNonNull(range, "range");
@@ -63,5 +76,10 @@ public record FitSpec(Design start, List<String> free, Optional<GainHold> gain, 
         if (!(pointwiseWeight >= 0) || !Double.isFinite(pointwiseWeight)) {
             throw new IllegalArgumentException("pointwiseWeight=" + pointwiseWeight + " must be finite and >= 0");
         }
+    }
+
+    /** The relative source density shape f ↦ 1 + fc/f (dimensionless, f in Hz); 1 without a source. */
+    public DoubleUnaryOperator sourceShape() {
+        return source.<DoubleUnaryOperator>map(src -> src::shape).orElse(hz -> 1.0);
     }
 }

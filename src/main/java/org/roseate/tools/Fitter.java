@@ -96,7 +96,7 @@ public final class Fitter {
         this.spec = spec;
         PowerProgram program = PowerProgram.of(spec.start());
         this.scorer = new Scorer(program, spec.range(), spec.target(),
-                BandTable.of(spec.fraction(), spec.range().loHz(), spec.range().hiHz()));
+                BandTable.of(spec.fraction(), spec.range().loHz(), spec.range().hiHz()), spec.sourceShape());
         int n = spec.free().size();
         slots = new int[n];
         lnLo = new double[n];
@@ -421,7 +421,7 @@ public final class Fitter {
 
     private FitScore score(Design d, boolean standard) {
         PowerProgram p = PowerProgram.of(d);
-        Scorer s = new Scorer(p, spec.range(), spec.target(), scorer.table());
+        Scorer s = new Scorer(p, spec.range(), spec.target(), scorer.table(), spec.sourceShape());
         Scorer.Workspace w = s.workspace();
         double[] v = p.nominal();
         double band = s.bandPeakDb(v, w);
@@ -438,8 +438,10 @@ public final class Fitter {
 
     private DesignAnalysis analyse(Design d) {
         CircuitModel m = CircuitModel.of(d, d.name());
-        return DesignAnalysis.of(m, spec.range(), spec.target(), spec.fraction(),
-                LogGrid.points(spec.range().loHz(), spec.range().hiHz(), 20));
+        double[] hz = LogGrid.points(spec.range().loHz(), spec.range().hiHz(), 20);
+        return spec.source().isPresent()
+                ? DesignAnalysis.withSource(m, spec.range(), spec.target(), spec.fraction(), hz, spec.sourceShape())
+                : DesignAnalysis.of(m, spec.range(), spec.target(), spec.fraction(), hz);
     }
 
     /** SplitMix64 finaliser of (seed, stream): independent, reproducible seeds per task. */

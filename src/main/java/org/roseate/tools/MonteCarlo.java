@@ -24,7 +24,8 @@ import org.roseate.value.Tolerance;
 /**
  * Monte Carlo tolerance analysis: each trial draws every toleranced part from its
  * {@link Distribution} (tolerances from the design's {@code tolerance} map; parts without one
- * are held exact; the key {@value ToleranceOverrides#OPAMP_GBW_KEY} spreads every op-amp's gbwHz,
+ * are held exact; the key {@value ToleranceOverrides#OPAMP_GBW_KEY} spreads every op-amp's gbwHz, those inside
+ * circuit stages included (named as {@link PartsList#opAmps} names them),
  * each op-amp drawn on its own), and computes the band levels 10·log10 ∫|H|² df and their centred
  * deviations from a reference: the target slope's band levels, or with
  * {@link Spec#againstNominal()} the nominal design's own band levels (any shape). Trial i uses its
@@ -194,14 +195,20 @@ public final class MonteCarlo {
             (t.isPresent() ? toleranced : exact).add(c.designator());
         }
         Tolerance gbwTol = spec.design().tolerances().get(ToleranceOverrides.OPAMP_GBW_KEY);
-        int stages = program.stageCount();
-        double[] gbwTolByStage = new double[stages];
-        for (int s = 0; s < stages; s++) {
-            if (program.hasOpAmp(s)) {
-                gbwTolByStage[s] = gbwTol == null ? 0 : gbwTol.fraction();
-                (gbwTol == null ? exact : toleranced).add(opAmpName(s));
+        // every modelled op-amp, stage by stage (an older-kind stage's single one: k = -1; a circuit
+        // stage's: its index in the nodal workspace), named as the parts list names them
+        List<String> opName = new ArrayList<>();
+        List<int[]> opAt = new ArrayList<>();
+        for (PartsList.OpAmpEntry o : PartsList.opAmps(spec.design())) {
+            int s = o.stage() - 1;
+            int k = program.circuitOpAmpIndex(s, o.name());
+            if (k >= 0 || program.hasOpAmp(s)) {
+                opName.add(o.name());
+                opAt.add(new int[] {s, k});
             }
         }
+        double gbwTolFraction = gbwTol == null ? 0 : gbwTol.fraction();
+        opName.forEach(name -> (gbwTol == null ? exact : toleranced).add(name));
         int nb = scorer.bandCount();
         int n = spec.trials();
         Scorer.Workspace w = scorer.workspace();
@@ -242,9 +249,9 @@ public final class MonteCarlo {
                             for (int i = 0; i < values.length; i++) {
                                 values[i] = tol[i] == 0 ? nominal[i] : nominal[i] * (1 + tol[i] * draw(spec.distribution(), rnd));
                             }
-                            for (int s = 0; s < stages; s++) {
-                                ws.power().gbwFactor[s] = gbwTolByStage[s] == 0 ? 1
-                                        : 1 + gbwTolByStage[s] * draw(spec.distribution(), rnd);
+                            for (int[] at : opAt) {
+                                PowerProgram.setGbwFactor(at[0], at[1], gbwTolFraction == 0 ? 1
+                                        : 1 + gbwTolFraction * draw(spec.distribution(), rnd), ws.power());
                             }
                             scorer.bandLevels(values, ws, raw);
                             int o = (trial - a) * stride;
@@ -280,12 +287,10 @@ public final class MonteCarlo {
         for (int i = 0; i < parts.size(); i++) {
             Component c = parts.get(i);
             sens.add(sensitivity(c.designator(), spec.design().toleranceOf(c).orElse(null),
-                    bandSensitivity(scorer, w, nominal, i, -1)));
+                    bandSensitivity(scorer, w, nominal, i, null)));
         }
-        for (int s = 0; s < stages; s++) {
-            if (program.hasOpAmp(s)) {
-                sens.add(sensitivity(opAmpName(s), gbwTol, bandSensitivity(scorer, w, nominal, -1, s)));
-            }
+        for (int o = 0; o < opAt.size(); o++) {
+            sens.add(sensitivity(opName.get(o), gbwTol, bandSensitivity(scorer, w, nominal, -1, opAt.get(o))));
         }
         sens.sort(Comparator.comparingDouble(PartSensitivity::contributionDb)
                 .thenComparingDouble(PartSensitivity::maxShapeDb).reversed());
@@ -293,7 +298,10 @@ public final class MonteCarlo {
                 Math.sqrt(y * (1 - y) / n), Scorer.halfSpread(nomDev, nb), toleranced, exact, sens);
     }
 
-    /** The name of stage s's op-amp in the sensitivity list: "U1" for the first stage. */
+    /**
+     * "U" and the 1-based stage number: the name of an older-kind stage's op-amp unless a circuit
+     * op-amp's designator takes it (then {@link PartsList#opAmps} names it, as the runs do).
+     */
     public static String opAmpName(int stage) {
         return ToleranceOverrides.OPAMP_GBW_KEY + (stage + 1);
     }
@@ -342,27 +350,29 @@ public final class MonteCarlo {
         }
     }
 
-    /** Per band, dB per +1 % of part {@code slot} (or, with slot −1, of stage {@code stage}'s gbwHz). */
-    private static double[] bandSensitivity(Scorer scorer, Scorer.Workspace w, double[] nominal, int slot, int stage) {
+    /**
+     * Per band, dB per +1 % of part {@code slot} (or, with slot −1, of the gbwHz of the op-amp at
+     * {@code opAt} = {stage, index in the circuit stage or −1}).
+     */
+    private static double[] bandSensitivity(Scorer scorer, Scorer.Workspace w, double[] nominal, int slot, int[] opAt) {
         int nb = scorer.bandCount();
         double[] up = new double[nb];
         double[] down = new double[nb];
         double[] v = nominal.clone();
-        double[] g = w.power().gbwFactor;
         if (slot >= 0) {
             v[slot] = nominal[slot] * Math.exp(SENSITIVITY_STEP);
         } else {
-            g[stage] = Math.exp(SENSITIVITY_STEP);
+            PowerProgram.setGbwFactor(opAt[0], opAt[1], Math.exp(SENSITIVITY_STEP), w.power());
         }
         scorer.bandLevels(v, w, up);
         if (slot >= 0) {
             v[slot] = nominal[slot] * Math.exp(-SENSITIVITY_STEP);
         } else {
-            g[stage] = Math.exp(-SENSITIVITY_STEP);
+            PowerProgram.setGbwFactor(opAt[0], opAt[1], Math.exp(-SENSITIVITY_STEP), w.power());
         }
         scorer.bandLevels(v, w, down);
         if (slot < 0) {
-            g[stage] = 1;
+            PowerProgram.setGbwFactor(opAt[0], opAt[1], 1, w.power());
         }
         double[] s = new double[nb];
         for (int i = 0; i < nb; i++) {

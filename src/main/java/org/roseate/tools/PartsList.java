@@ -3,6 +3,7 @@ package org.roseate.tools;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
+import org.roseate.circuit.CircuitStage;
 import org.roseate.circuit.Component;
 import org.roseate.circuit.Design;
 import org.roseate.value.ComponentKind;
@@ -61,7 +62,11 @@ public final class PartsList {
     /**
      * An op-amp of the design with its model keys as the design file writes them.
      *
-     * @param name         "U" and the stage number, e.g. "U1"
+     * @param name         a circuit stage's op-amp: its designator from the file's {@code opamps}
+     *                     map (e.g. "U2"); an older-kind stage's single op-amp, which has no
+     *                     designator in the file: "U" and the stage number, or, when a circuit
+     *                     op-amp of the design already uses that name, the next "U" number used by
+     *                     no other op-amp of the design
      * @param stage        the stage, 1-based
      * @param gbwHz        the gain-bandwidth product, Hz ({@code gbwHz})
      * @param openLoopGain the DC open-loop gain, ratio ({@code openLoopGain})
@@ -81,13 +86,38 @@ public final class PartsList {
         return out;
     }
 
-    /** The op-amps with a model in the design, stage by stage (an ideal op-amp has none). */
+    /**
+     * The op-amps with a model in the design (an ideal op-amp has none), stage by stage and, within
+     * a circuit stage, in the file's order; names as {@link OpAmpEntry#name()} says.
+     */
     public static List<OpAmpEntry> opAmps(Design design) {
+        java.util.Set<String> taken = new java.util.HashSet<>();
+        for (var st : design.stages()) {
+            if (st instanceof CircuitStage c) {
+                taken.addAll(c.opamps().keySet());
+            }
+        }
         List<OpAmpEntry> out = new ArrayList<>();
         for (int s = 0; s < design.stages().size(); s++) {
             final int stage = s + 1;
-            design.stages().get(s).opamp().ifPresent(o -> out.add(new OpAmpEntry(
-                    ToleranceOverrides.OPAMP_GBW_KEY + stage, stage, o.gbwHz(), o.openLoopGain())));
+            if (design.stages().get(s) instanceof CircuitStage c) {
+                c.opamps().forEach((name, op) -> {
+                    if (!op.model().isIdeal()) {
+                        out.add(new OpAmpEntry(name, stage, op.model().gbwHz(), op.model().openLoopGain()));
+                    }
+                });
+                continue;
+            }
+            var model = design.stages().get(s).opamp();
+            if (model.isPresent()) {
+                int n = stage;
+                while (taken.contains(ToleranceOverrides.OPAMP_GBW_KEY + n)) {
+                    n++;
+                }
+                String name = ToleranceOverrides.OPAMP_GBW_KEY + n;
+                taken.add(name);
+                out.add(new OpAmpEntry(name, stage, model.get().gbwHz(), model.get().openLoopGain()));
+            }
         }
         return out;
     }

@@ -78,8 +78,8 @@ final class PowerProgram {
             Network b;
             if (st instanceof CircuitStage c) {
                 stageKind[s] = KIND_CIRCUIT;
-                // a circuit's op-amps live in its nodal equations; the gbwHz spread of tolerance
-                // runs applies to the older kinds' single op-amp only
+                // a circuit's op-amps live in its nodal equations; a tolerance run spreads their
+                // gbwHz through the nodal workspace's gbwFactor
                 openLoopGain[s] = Double.POSITIVE_INFINITY;
                 nodal[s] = NodalSolver.of(c);
                 List<String> keys = nodal[s].branchKeys();
@@ -161,6 +161,27 @@ final class PowerProgram {
 
     int stageCount() {
         return stageKind.length;
+    }
+
+    /**
+     * The index of circuit stage s's op-amp {@code designator} in its nodal workspace's
+     * {@link NodalSolver.Workspace#gbwFactor}, or -1 when stage s is not a circuit stage or has no
+     * such op-amp.
+     */
+    int circuitOpAmpIndex(int s, String designator) {
+        return nodal[s] == null ? -1 : nodal[s].opampNames().indexOf(designator);
+    }
+
+    /**
+     * Sets an op-amp's gbwHz as a multiple of the design's for the next {@link #power} calls:
+     * stage s's single op-amp (k = -1) or circuit op-amp k of stage s.
+     */
+    static void setGbwFactor(int s, int k, double factor, Workspace w) {
+        if (k < 0) {
+            w.gbwFactor[s] = factor;
+        } else {
+            w.nodal[s].gbwFactor[k] = factor;
+        }
     }
 
     /** Whether stage s has a (non-ideal) op-amp model. */

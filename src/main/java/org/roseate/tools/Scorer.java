@@ -1,6 +1,7 @@
 package org.roseate.tools;
 
 import java.util.List;
+import java.util.function.DoubleUnaryOperator;
 import org.roseate.bands.Band;
 import org.roseate.bands.BandTable;
 import org.roseate.compare.FrequencyRange;
@@ -14,7 +15,10 @@ import org.roseate.compare.TargetSlope;
  * Gauss–Legendre rule on ln f as {@link org.roseate.model.BandPower} (Abramowitz &amp; Stegun
  * table 25.4, sub-intervals ≤ 0.05 in ln f; nodes precomputed here once), and the pointwise
  * deviation on the {@link SlopeFit} grid ({@value SlopeFit#POINTS_PER_DECADE} per decade). Both
- * centred by the minimax offset, peak = (max − min)/2. Immutable; thread-safe with one
+ * centred by the minimax offset, peak = (max − min)/2. With a source shape s(f) (the relative
+ * density 1 + fc/f of {@link org.roseate.circuit.SourceNoise}) the judged power is |H|²·s, as in
+ * {@link org.roseate.compare.DesignAnalysis#withSource}: each quadrature weight is multiplied by s at
+ * its node, and 10·log10 s is subtracted from each pointwise target. Immutable; thread-safe with one
  * {@link Workspace} per thread.
  */
 final class Scorer {
@@ -38,6 +42,11 @@ final class Scorer {
     private final double[] targetPointDb;
 
     Scorer(PowerProgram program, FrequencyRange range, TargetSlope target, BandTable table) {
+        this(program, range, target, table, hz -> 1.0);
+    }
+
+    /** @param sourceShape the source's relative density s(f) &gt; 0, f in Hz, multiplying |H|² */
+    Scorer(PowerProgram program, FrequencyRange range, TargetSlope target, BandTable table, DoubleUnaryOperator sourceShape) {
         this.program = program;
         this.table = table;
         List<Band> bands = table.bands();
@@ -65,7 +74,7 @@ final class Scorer {
                     for (int sign = -1; sign <= 1; sign += 2) {
                         double f = Math.exp(mid + sign * half * NODES[q]);
                         bandOmega[j] = 2 * Math.PI * f;
-                        bandWeightHz[j] = WEIGHTS[q] * half * f;
+                        bandWeightHz[j] = WEIGHTS[q] * half * f * sourceShape.applyAsDouble(f);
                         j++;
                     }
                 }
@@ -76,7 +85,7 @@ final class Scorer {
         targetPointDb = new double[grid.length];
         for (int i = 0; i < grid.length; i++) {
             pointOmega[i] = 2 * Math.PI * grid[i];
-            targetPointDb[i] = target.levelDb(grid[i]);
+            targetPointDb[i] = target.levelDb(grid[i]) - 10 * Math.log10(sourceShape.applyAsDouble(grid[i]));
         }
     }
 
