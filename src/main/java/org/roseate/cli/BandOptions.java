@@ -25,6 +25,11 @@ final class BandOptions {
      * would be cut silently.
      */
     FrequencyRange range() {
+        return analysableRange(range);
+    }
+
+    /** {@link #range()} for a command that takes {@code --range} without the rest of this mixin. */
+    static FrequencyRange analysableRange(String range) {
         FrequencyRange r = Inputs.range(range);
         double slack = 1 + BandTable.RELATIVE_SLACK;
         if (r.loHz() < Band.MIN_NOMINAL_HZ / slack || r.hiHz() > Band.MAX_NOMINAL_HZ * slack) {
@@ -40,6 +45,11 @@ final class BandOptions {
     }
 
     BandFraction fraction() {
+        return fraction(bands);
+    }
+
+    /** {@link #fraction()} for a command that takes {@code --bands} without the rest of this mixin. */
+    static BandFraction fraction(String bands) {
         return BandFraction.parse(bands)
                 .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
     }

@@ -65,9 +65,8 @@ final class BudgetCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        FrequencyRange r = Inputs.range(range);
-        BandFraction fraction = BandFraction.parse(bands)
-                .orElseThrow(() -> new UserInputException("--bands: expected octave or third, found '" + bands + "'"));
+        FrequencyRange r = BandOptions.analysableRange(range);
+        BandFraction fraction = BandOptions.fraction(bands);
         double[] points = freqs == null ? LogGrid.points(r.loHz(), r.hiHz(), 10) : Inputs.frequencies(freqs, "--freqs");
         CompareCommand.checkPlotName(plot);
         Design design = DesignReader.read(file);

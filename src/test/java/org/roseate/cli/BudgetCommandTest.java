@@ -149,4 +149,13 @@ class BudgetCommandTest {
         assertEquals(2, r.status());
         assertTrue(r.err().startsWith("roseate: c.json: nothing makes noise"), r.err());
     }
+
+    /** The range limit is the one analyze, measure and compare use (issue 15: no silent cut at the table's edge). */
+    @Test
+    void aRangeBeyondTheTabulatedBandsIsRefusedWithTheLimitNamed() {
+        AnalyzeCommandTest.Run r = AnalyzeCommandTest.run("budget", "presets/bench-pink.json", "--range", "1-1e9");
+        assertEquals(2, r.status(), r.err());
+        assertTrue(r.err().startsWith("roseate: --range: 1-1e9 reaches beyond the analysable range, 0.4000 Hz to 100.0 kHz"),
+                r.err());
+    }
 }
