@@ -132,7 +132,7 @@ final class DiagnoseCommand implements Callable<Integer> {
             if (file != null) {
                 throw new UserInputException("diagnose: give a capture or --live, not both");
             }
-            file = LiveCapture.record(liveSettings());
+            file = LiveCapture.record(liveSettings(), spec.commandLine().getErr());
         } else if (file == null) {
             throw new UserInputException("diagnose: name the capture, or record one with --live");
         } else if (saveCapture != null) {
@@ -142,30 +142,16 @@ final class DiagnoseCommand implements Callable<Integer> {
             return run();
         } finally {
             if (live && saveCapture == null) {
-                try {
-                    Files.deleteIfExists(file);
-                } catch (IOException e) {
-                    spec.commandLine().getErr().println("roseate: note: could not delete the temporary capture " + file);
-                }
+                LiveCapture.deleteTemporary(file, spec.commandLine().getErr());
             }
         }
     }
 
     /** The recording settings as {@code measure --live} takes them, so both record the same way. */
-    private MeasureCommand liveSettings() {
-        MeasureCommand m = new MeasureCommand();
-        m.spec = spec;
-        m.transfer = referenceChannel != null;
-        m.channel = m.transfer ? null : channel;
-        m.device = device;
-        m.outputDevice = outputDevice;
-        m.rateHz = rateHz;
-        m.seconds = seconds;
-        m.levelDbfs = levelDbfs;
-        m.allowLoud = allowLoud;
-        m.saveCapture = saveCapture;
-        m.force = force;
-        return m;
+    private LiveCapture.Request liveSettings() {
+        boolean transfer = referenceChannel != null;
+        return new LiveCapture.Request(device, outputDevice, rateHz, seconds, levelDbfs, allowLoud, transfer,
+                transfer ? null : channel, saveCapture, force);
     }
 
     private String name() {

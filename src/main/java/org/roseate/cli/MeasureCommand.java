@@ -2,7 +2,6 @@ package org.roseate.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.roseate.bands.BandFraction;
@@ -123,7 +122,8 @@ final class MeasureCommand implements Callable<Integer> {
                 throw new UserInputException("measure: give a WAV file or --live, not both");
             }
             checkOptions();
-            file = LiveCapture.record(this);
+            file = LiveCapture.record(new LiveCapture.Request(device, outputDevice, rateHz, seconds, levelDbfs, allowLoud,
+                    transfer, channel, saveCapture, force), spec.commandLine().getErr());
         } else if (file == null) {
             throw new UserInputException("measure: name a WAV file, or record one with --live");
         } else if (saveCapture != null) {
@@ -133,11 +133,7 @@ final class MeasureCommand implements Callable<Integer> {
             return analyse();
         } finally {
             if (live && saveCapture == null) {
-                try {
-                    Files.deleteIfExists(file);
-                } catch (IOException e) {
-                    spec.commandLine().getErr().println("roseate: note: could not delete the temporary capture " + file);
-                }
+                LiveCapture.deleteTemporary(file, spec.commandLine().getErr());
             }
         }
     }
