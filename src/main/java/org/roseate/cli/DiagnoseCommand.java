@@ -18,7 +18,10 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DesignReader;
-import org.roseate.diagnose.CaptureResponses;
+import org.roseate.bands.BandFraction;
+import org.roseate.bands.BandTable;
+import org.roseate.compare.FrequencyRange;
+import org.roseate.diagnose.CaptureGrid;
 import org.roseate.diagnose.Diagnoser;
 import org.roseate.diagnose.Diagnosis;
 import org.roseate.diagnose.DiagnosisException;
@@ -31,19 +34,21 @@ import org.roseate.diagnose.SensitivityBand;
 import org.roseate.io.WavFormat;
 import org.roseate.io.WavFormatException;
 import org.roseate.io.WavReader;
+import org.roseate.measure.FileMeasure;
+import org.roseate.measure.MeasureException;
+import org.roseate.measure.MeasureRequest;
+import org.roseate.measure.MeasureResult;
 import org.roseate.plot.FrequencyChart;
 import org.roseate.spectrum.Calibration;
 import org.roseate.spectrum.CalibrationException;
-import org.roseate.spectrum.CrossSpectrumEstimator;
-import org.roseate.spectrum.SpectralDensity;
-import org.roseate.spectrum.TransferEstimate;
-import org.roseate.spectrum.WelchEstimator;
 import org.roseate.spectrum.WelchSettings;
+import org.roseate.sweep.SweepResult;
 import org.roseate.value.ComponentKind;
 import org.roseate.value.EngineeringValue;
 import org.roseate.value.Tolerance;
 import org.roseate.value.ValueFormatException;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -51,14 +56,15 @@ import picocli.CommandLine.Spec;
 /** {@code diagnose DESIGN.json CAPTURE.wav}: each part's actual value, estimated from a measured build. */
 @Command(name = "diagnose", mixinStandardHelpOptions = true,
         description = "Estimate every part's actual value from a capture of the built circuit: a transfer capture "
-                + "(with --reference-channel) or a noise-source capture (one channel, level unknown).")
+                + "(with --reference-channel; noise or, with --sweep, a swept sine) or a noise-source capture (one "
+                + "channel, level unknown).")
 final class DiagnoseCommand implements Callable<Integer> {
     static final String LEGEND = "Method: maximum a posteriori estimate of ln(value) per part; the measured level's "
             + "scatter per point weights the fit, and each part's tolerance is a prior (the tolerance spans ±"
             + (int) PartPrior.K_SIGMA + "σ, plus a " + (int) Math.round(PartPrior.WRONG_PART_PROBABILITY * 100)
-            + " %% chance of a wrong part); Levenberg–Marquardt. Interval: central %s from the posterior covariance. "
+            + " %% chance of a wrong part); transfer captures fit magnitude and phase, each weighted by its own "
+            + "uncertainty; Levenberg–Marquardt. Interval: central %s from the posterior covariance. "
             + "P(outside): posterior probability that the part lies outside its tolerance; flagged at %s and above.";
-    private static final int BLOCK_FRAMES = 8192;
     /** At least this many segments for an automatic segment length, so scatter estimates are stable. */
     private static final int MIN_SEGMENTS = 16;
     private static final int MIN_SEGMENT = 256;
@@ -123,11 +129,17 @@ final class DiagnoseCommand implements Callable<Integer> {
     @Option(names = "--save-capture", paramLabel = "OUT.wav", description = "with --live: keep the raw recording")
     Path saveCapture;
 
+    @Mixin
+    SweepOptions sweep = new SweepOptions();
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() {
+        if (sweep.enabled()) {
+            return sweepDiagnosis();
+        }
         if (live) {
             if (file != null) {
                 throw new UserInputException("diagnose: give a capture or --live, not both");
@@ -158,7 +170,11 @@ final class DiagnoseCommand implements Callable<Integer> {
         return file.getFileName().toString();
     }
 
-    private Integer run() {
+    /** The design, its parts' priors and where each part shapes the response. */
+    private record Parts(Design design, String source, List<PartPrior> priors, List<SensitivityBand> bands) {
+    }
+
+    private Parts parts() {
         CompareCommand.checkPlotName(plot);
         Design design = DesignReader.read(designFile);
         String source = designFile.getFileName().toString();
@@ -169,7 +185,11 @@ final class DiagnoseCommand implements Callable<Integer> {
             throw new UserInputException(source + ": no tolerance for " + String.join(", ", e.designators())
                     + "; give them with --tolerance R=1%,C=5%");
         }
-        List<SensitivityBand> bands = SensitivityBand.of(design, source, priors);
+        return new Parts(design, source, priors, SensitivityBand.of(design, source, priors));
+    }
+
+    private Integer run() {
+        Parts parts = parts();
         Calibration cal = null;
         if (calibration != null) {
             try {
@@ -178,46 +198,141 @@ final class DiagnoseCommand implements Callable<Integer> {
                 throw new UserInputException(e.getMessage());
             }
         }
+        WavFormat f;
+        long frames;
         try (WavReader reader = open()) {
-            WavFormat f = reader.format();
-            if (cal != null) {
-                try {
-                    cal.checkRate(f.sampleRateHz());
-                } catch (CalibrationException e) {
-                    throw new UserInputException(e.getMessage());
-                }
-            }
-            int[] ch = channels(f);
-            checkRate(f.sampleRateHz(), bands);
-            int n = segmentLength(f.sampleRateHz(), reader.frames(), bands);
-            double[] band = CaptureResponses.band(f.sampleRateHz(), n);
-            MeasuredResponse measured = ch.length == 2
-                    ? transfer(reader, f, n, ch[0], ch[1], cal, band)
-                    : noise(reader, f, n, ch[0], cal, band);
-            checkTrusted(measured);
-            Diagnosis dx;
-            try {
-                dx = Diagnoser.diagnose(design, source, priors, measured, Diagnoser.DEFAULT_CONFIDENCE);
-            } catch (DiagnosisException e) {
-                throw new UserInputException(name() + ": " + e.getMessage());
-            }
-            if (plot != null) {
-                CompareCommand.writePlot(chart(dx), plot, force);
-            }
-            String out = switch (format) {
-                case json -> json(design, measured, dx, n);
-                case csv -> csv(design, dx);
-                default -> table(design, measured, dx, n, band);
-            };
-            PrintWriter pw = spec.commandLine().getOut();
-            pw.print(out);
-            pw.flush();
-            return 0;
+            f = reader.format();
+            frames = reader.frames();
         } catch (WavFormatException e) {
             throw new UserInputException(e.getMessage());
         } catch (IOException e) {
             throw new UserInputException(name() + ": cannot read (" + e.getMessage() + ")");
         }
+        int[] ch = channels(f);
+        checkRate(f.sampleRateHz(), parts.bands());
+        int n = segmentLength(f.sampleRateHz(), frames, parts.bands());
+        MeasureResult res = measure(f.sampleRateHz(), n, ch, cal);
+        PrintWriter err = spec.commandLine().getErr();
+        // Only the warnings about the samples themselves: the core's band table is not shown here.
+        res.warnings().stream().filter(w -> w.contains("clipped")).forEach(w -> err.println("roseate: " + w));
+        err.flush();
+        String what = ch.length == 2
+                ? Numbers.f("transfer from channel %d (reference) to channel %d%s, %d averages", ch[0] + 1, ch[1] + 1,
+                        cal != null ? ", calibrated" : "", res.averages())
+                : Numbers.f("noise source on channel %d, level unknown%s, %d averages", ch[0] + 1,
+                        cal != null ? ", calibrated" : "", res.averages());
+        MeasuredResponse measured = MeasuredResponse.of(res, what);
+        return report(parts, measured, Numbers.f("segment %d (%.4g Hz bins)", n, f.sampleRateHz() / n),
+                CaptureGrid.band(f.sampleRateHz(), n), n);
+    }
+
+    /**
+     * The capture read through the measurement core, as {@code measure} reads it: one request with
+     * the analysis points as response points, so integrity checks, calibration and every ± come from
+     * the same pipeline.
+     */
+    private MeasureResult measure(double rateHz, int n, int[] ch, Calibration cal) {
+        double[] band = CaptureGrid.band(rateHz, n);
+        // The core always reads a band table too; diagnose shows none, so any octave table it can
+        // resolve will do: from 16 low-end bins (8 or more bins per octave band) up.
+        double tableLo = Math.min(band[0] * 16, band[1] / 2);
+        try {
+            BandTable table = BandTable.of(BandFraction.OCTAVE, tableLo, band[1]);
+            FrequencyRange range = new FrequencyRange(band[0], band[1]);
+            MeasureRequest q = ch.length == 2
+                    ? MeasureRequest.transfer(table, range, null, ch[0], ch[1])
+                    : MeasureRequest.noiseSource(table, range, null).withResponseChannel(ch[0]);
+            q = q.withCalibration(cal).withSegmentLength(n).withResponseHz(CaptureGrid.points(rateHz, n));
+            return FileMeasure.run(file, q);
+        } catch (MeasureException e) {
+            throw new UserInputException(e.getMessage());
+        } catch (IllegalArgumentException e) {
+            throw new UserInputException(name() + ": " + e.getMessage());
+        }
+    }
+
+    /** {@code --sweep}: a swept-sine transfer capture, from a file or live, read as {@code measure --sweep} reads it. */
+    private Integer sweepDiagnosis() {
+        String[] noiseOnly = {"--calibration", "--segment", "--save-capture"};
+        for (String option : noiseOnly) {
+            if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+                throw new UserInputException(option + " does not apply to --sweep captures");
+            }
+        }
+        if (live == (file != null)) {
+            throw new UserInputException(live ? "--live records its own capture; leave out " + file
+                    : "diagnose: name the capture, or record one with --live");
+        }
+        if (referenceChannel == null) {
+            throw new UserInputException("--sweep diagnoses a transfer capture; name the reference with --reference-channel N");
+        }
+        Parts parts = parts();
+        double rate = rateHz;
+        int channels = 2;
+        if (!live) {
+            try (WavReader reader = open()) {
+                rate = reader.format().sampleRateHz();
+                channels = reader.format().channels();
+            } catch (WavFormatException e) {
+                throw new UserInputException(e.getMessage());
+            } catch (IOException e) {
+                throw new UserInputException(name() + ": cannot read (" + e.getMessage() + ")");
+            }
+        }
+        // live: the input is opened with as many channels as the two named need
+        int avail = live ? Math.max(channels, Math.max(referenceChannel, channel == null ? 0 : channel)) : channels;
+        int ref = index(referenceChannel, "--reference-channel", avail);
+        int resp;
+        if (channel != null) {
+            resp = index(channel, "--channel", avail);
+        } else if (channels == 2) {
+            resp = 1 - ref;
+        } else {
+            throw new UserInputException(file + ": has " + channels + " channels; name the response with --channel");
+        }
+        checkRate(rate, parts.bands());
+        PrintWriter err = spec.commandLine().getErr();
+        SweepResult r = SweepMeasurement.measure(file, sweep, live, resp, ref, outputDevice, device, rateHz, levelDbfs,
+                allowLoud, err);
+        err.flush();
+        double[] band = {r.spec().startHz(), Math.min(CaptureGrid.HIGH_FRACTION_OF_RATE * rate,
+                Math.min(r.spec().endHz(), SensitivityBand.GRID_HIGH_HZ))};
+        MeasuredResponse measured;
+        try {
+            measured = MeasuredResponse.of(r, band[0], band[1], Numbers.f("swept sine %s to %s, %.3g s, transfer from "
+                    + "channel %d (reference) to channel %d", Numbers.hz(r.spec().startHz()), Numbers.hz(r.spec().endHz()),
+                    r.spec().durationSeconds(), ref + 1, resp + 1));
+        } catch (IllegalArgumentException e) {
+            throw new UserInputException(sweepName() + ": " + e.getMessage());
+        }
+        return report(parts, measured, Numbers.f("%d points per octave", sweep.pointsPerOctave()), band, 0);
+    }
+
+    private String sweepName() {
+        return file == null ? "live recording" : name();
+    }
+
+    /** Diagnoses and prints in the chosen form. */
+    private Integer report(Parts parts, MeasuredResponse measured, String resolution, double[] band, int n) {
+        checkTrusted(measured);
+        Diagnosis dx;
+        try {
+            dx = Diagnoser.diagnose(parts.design(), parts.source(), parts.priors(), measured, Diagnoser.DEFAULT_CONFIDENCE);
+        } catch (DiagnosisException e) {
+            throw new UserInputException(sweepName() + ": " + e.getMessage());
+        }
+        if (plot != null) {
+            CompareCommand.writePlot(chart(dx), plot, force);
+        }
+        String out = switch (format) {
+            case json -> json(parts.design(), measured, dx, n);
+            case csv -> csv(parts.design(), dx);
+            default -> table(parts.design(), measured, dx, resolution, band);
+        };
+        PrintWriter pw = spec.commandLine().getOut();
+        pw.print(out);
+        pw.flush();
+        return 0;
     }
 
     /** Parses --tolerance "R=1%,C=5%,R3=0.1%". */
@@ -243,6 +358,9 @@ final class DiagnoseCommand implements Callable<Integer> {
     }
 
     private WavReader open() throws IOException {
+        if (file == null) {
+            throw new UserInputException("diagnose: name the capture, or record one with --live");
+        }
         if (Files.isDirectory(file)) {
             throw new UserInputException(file + ": is a folder, not a WAV file");
         }
@@ -292,7 +410,7 @@ final class DiagnoseCommand implements Callable<Integer> {
 
     /** Refuses a rate whose analysed band ends below where some part shapes the response. */
     private void checkRate(double rateHz, List<SensitivityBand> bands) {
-        double hi = CaptureResponses.band(rateHz, WelchSettings.MAX_SEGMENT_LENGTH)[1];
+        double hi = CaptureGrid.band(rateHz, WelchSettings.MAX_SEGMENT_LENGTH)[1];
         SensitivityBand worst = null;
         for (SensitivityBand b : bands) {
             if (b.fromHz() > hi && (worst == null || b.fromHz() > worst.fromHz())) {
@@ -303,7 +421,7 @@ final class DiagnoseCommand implements Callable<Integer> {
             throw new UserInputException(Numbers.f("%s: at %s the analysed band ends at %s, below %s, where %s starts "
                     + "to shape the response; capture at %.0f Hz or faster", file, Numbers.hz(rateHz), Numbers.hz(hi),
                     Numbers.hz(worst.fromHz()), worst.designator(),
-                    Math.ceil(worst.fromHz() / CaptureResponses.HIGH_FRACTION_OF_RATE)));
+                    Math.ceil(worst.fromHz() / CaptureGrid.HIGH_FRACTION_OF_RATE)));
         }
     }
 
@@ -326,14 +444,14 @@ final class DiagnoseCommand implements Callable<Integer> {
         }
         int wanted = MIN_SEGMENT;
         while (wanted < WelchSettings.MAX_SEGMENT_LENGTH
-                && CaptureResponses.LOW_BINS * rateHz / wanted > needLo / 2) {
+                && CaptureGrid.LOW_BINS * rateHz / wanted > needLo / 2) {
             wanted *= 2;
         }
         int n = wanted;
         while (n > MIN_SEGMENT && (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
             n /= 2;
         }
-        if (CaptureResponses.LOW_BINS * rateHz / n > needLo || (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
+        if (CaptureGrid.LOW_BINS * rateHz / n > needLo || (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
             SensitivityBand b = bands.stream().min((x, y) -> Double.compare(x.toHz(), y.toHz())).orElseThrow();
             throw new UserInputException(Numbers.f("%s: %.2f s is too short to see %s, which shapes the response below %s; "
                     + "record at least %.0f s", file, frames / rateHz, b.designator(), Numbers.hz(b.toHz()),
@@ -342,41 +460,13 @@ final class DiagnoseCommand implements Callable<Integer> {
         return n;
     }
 
-    private MeasuredResponse transfer(WavReader reader, WavFormat f, int n, int ref, int resp, Calibration cal,
-            double[] band) throws IOException {
-        CrossSpectrumEstimator est = new CrossSpectrumEstimator();
-        est.prepare(f.sampleRateHz(), WelchSettings.of(n));
-        double[] buf = new double[BLOCK_FRAMES * f.channels()];
-        for (int got; (got = reader.readFrames(buf, BLOCK_FRAMES)) > 0; ) {
-            est.acceptInterleaved(buf, got, f.channels(), ref, resp);
-        }
-        TransferEstimate h = est.snapshot().transfer();
-        if (cal != null) {
-            h = cal.apply(h);
-        }
-        return CaptureResponses.fromTransfer(h, band[0], band[1], Numbers.f("transfer from channel %d (reference) to "
-                + "channel %d%s, %d averages", ref + 1, resp + 1, cal != null ? ", calibrated" : "", h.averages()));
-    }
-
-    private MeasuredResponse noise(WavReader reader, WavFormat f, int n, int ch, Calibration cal, double[] band)
-            throws IOException {
-        WelchEstimator est = new WelchEstimator();
-        est.prepare(f.sampleRateHz(), WelchSettings.of(n));
-        double[] buf = new double[BLOCK_FRAMES * f.channels()];
-        for (int got; (got = reader.readFrames(buf, BLOCK_FRAMES)) > 0; ) {
-            est.acceptInterleaved(buf, got, f.channels(), ch);
-        }
-        SpectralDensity d = est.snapshot();
-        return CaptureResponses.fromNoise(d, band[0], band[1], cal, Numbers.f("noise source on channel %d, level "
-                + "unknown%s, %d averages", ch + 1, cal != null ? ", calibrated" : "", d.averages()));
-    }
-
     /** Refuses a capture that has too few trusted points to say anything. */
     private void checkTrusted(MeasuredResponse m) {
         if (m.trustedCount() < Diagnoser.MIN_TRUSTED_POINTS) {
-            throw new UserInputException(Numbers.f("%s: coherence is below %.2f at %d of %d points, too low to say "
-                    + "anything about the parts; check the wiring, the channels and the test level", file,
-                    CaptureResponses.COHERENCE_THRESHOLD, m.size() - m.trustedCount(), m.size()));
+            throw new UserInputException(Numbers.f("%s: %s at %d of %d points, too low to say anything about the "
+                    + "parts; check the wiring, the channels and the test level", sweepName(), sweep.enabled()
+                    ? "the sweep's noise is above half the signal" : Numbers.f("coherence is below %.2f",
+                            MeasureRequest.DEFAULT_COHERENCE_THRESHOLD), m.size() - m.trustedCount(), m.size()));
         }
     }
 
@@ -393,15 +483,17 @@ final class DiagnoseCommand implements Callable<Integer> {
         return Numbers.f("%.0f %%", confidence * 100);
     }
 
-    private String table(Design design, MeasuredResponse m, Diagnosis dx, int n, double[] band) {
+    private String table(Design design, MeasuredResponse m, Diagnosis dx, String resolution, double[] band) {
         StringBuilder sb = new StringBuilder();
         sb.append(Numbers.f("Design:  %s (%s), %d parts%n", design.name(), designFile.getFileName(), dx.parts().size()));
-        sb.append(Numbers.f("Capture: %s, %s, %s; segment %d (%.4g Hz bins)%n", name(), Numbers.hz(m.sampleRateHz()),
-                m.description(), n, m.sampleRateHz() / n));
-        sb.append(Numbers.f("Analysed %s to %s, %d points per decade; %d of %d points trusted%s%n", Numbers.hz(band[0]),
-                Numbers.hz(band[1]), CaptureResponses.POINTS_PER_DECADE, m.trustedCount(), m.size(),
-                m.levelFree() ? Numbers.f("; level fitted: %+.2f dB", dx.levelOffsetDb())
-                        : Numbers.f(" (coherence ≥ %.2f)", CaptureResponses.COHERENCE_THRESHOLD)));
+        sb.append(Numbers.f("Capture: %s, %s, %s; %s%n", sweepName(), Numbers.hz(m.sampleRateHz()), m.description(),
+                resolution));
+        sb.append(Numbers.f("Analysed %s to %s, %d points; %d trusted%s%s%n", Numbers.hz(band[0]), Numbers.hz(band[1]),
+                m.size(), m.trustedCount(), m.levelFree() ? Numbers.f("; level fitted: %+.2f dB", dx.levelOffsetDb())
+                        : sweep.enabled() ? " (noise below half the signal)"
+                        : Numbers.f(" (coherence ≥ %.2f)", MeasureRequest.DEFAULT_COHERENCE_THRESHOLD),
+                dx.phasePoints() > 0 ? Numbers.f("; magnitude and phase fitted (%d phases)", dx.phasePoints())
+                        : "; magnitude fitted (no phase)"));
         String interval = percent(dx.confidence()) + " interval";
         sb.append(Numbers.f("%n%-6s %11s %11s %9s  %-25s %6s %10s%n", "part", "nominal", "estimate", "change", interval,
                 "tol", "P(outside)"));
@@ -434,16 +526,24 @@ final class DiagnoseCommand implements Callable<Integer> {
         sb.append(Numbers.f("Residual: %.3f dB RMS over %d trusted points; %.3f dB expected from the measurement's scatter "
                 + "(χ² = %.1f on %.1f degrees of freedom, p = %.3g)%n", dx.residualDb(), m.trustedCount(),
                 dx.expectedResidualDb(), dx.chiSquare(), dx.degreesOfFreedom(), dx.misfitPValue()));
+        if (dx.phasePoints() > 0) {
+            sb.append(Numbers.f("Phase residual: %.3f° RMS over %d points%n", dx.residualDeg(), dx.phasePoints()));
+        }
         if (dx.modelMisfit()) {
             sb.append("No part values explain this measurement: look for a missing, extra or swapped part or a wiring "
                     + "fault (see the residual per point below); the estimates above are not to be trusted.\n");
         }
-        sb.append(Numbers.f("%n%12s %10s %10s %10s %10s %8s%n", "Hz", "measured", "fitted", "design", "residual", "±dB"));
+        boolean phase = dx.phasePoints() > 0;
+        sb.append(Numbers.f("%n%12s %10s %10s %10s %10s %8s%s%n", "Hz", "measured", "fitted", "design", "residual", "±dB",
+                phase ? Numbers.f(" %9s %9s %8s", "meas. °", "resid. °", "±°") : ""));
         for (FitPoint p : dx.points()) {
-            sb.append(Numbers.f("%12.3f %10.3f %10.3f %10.3f %+10.3f %8.3f%s%n", p.hz(), p.measuredDb(), p.fittedDb(),
-                    p.designDb(), p.residualDb(), p.uncertaintyDb(), p.trusted() ? "" : " *"));
+            sb.append(Numbers.f("%12.3f %10.3f %10.3f %10.3f %+10.3f %8.3f%s%s%n", p.hz(), p.measuredDb(), p.fittedDb(),
+                    p.designDb(), p.residualDb(), p.uncertaintyDb(), !phase ? "" : Double.isFinite(p.measuredDeg())
+                            ? Numbers.f(" %9.2f %+9.3f %8.3f", p.measuredDeg(), p.residualDeg(), p.uncertaintyDeg())
+                            : Numbers.f(" %9s %9s %8s", "", "", ""), p.trusted() ? "" : " *"));
         }
-        sb.append("\n* untrusted (coherence below the threshold): shown, not fitted.\n");
+        sb.append(sweep.enabled() ? "\n* untrusted (the sweep's noise above half the signal): shown, not fitted.\n"
+                : "\n* untrusted (coherence below the threshold): shown, not fitted.\n");
         sb.append(Numbers.f(LEGEND, percent(dx.confidence()), percent(dx.confidence()))).append('\n');
         return sb.toString();
     }
@@ -460,10 +560,13 @@ final class DiagnoseCommand implements Callable<Integer> {
         ObjectMapper mapper = new ObjectMapper();
         ObjectNode root = mapper.createObjectNode();
         root.put("design", designFile.getFileName().toString());
-        root.put("file", name());
+        root.put("file", sweepName());
         root.put("mode", m.levelFree() ? "noise" : "transfer");
+        root.put("stimulus", sweep.enabled() ? "sweep" : "noise");
         root.put("sampleRateHz", m.sampleRateHz());
-        root.put("segmentLength", n);
+        if (n > 0) {
+            root.put("segmentLength", n);
+        }
         root.put("confidence", dx.confidence());
         root.put("toleranceSigmas", PartPrior.K_SIGMA);
         ArrayNode parts = root.putArray("parts");
@@ -485,6 +588,8 @@ final class DiagnoseCommand implements Callable<Integer> {
             g.forEach(a::add);
         }
         put(root, "residualDb", dx.residualDb());
+        put(root, "residualDeg", dx.residualDeg());
+        root.put("phasePoints", dx.phasePoints());
         put(root, "expectedResidualDb", dx.expectedResidualDb());
         put(root, "chiSquare", dx.chiSquare());
         put(root, "degreesOfFreedom", dx.degreesOfFreedom());
@@ -499,6 +604,12 @@ final class DiagnoseCommand implements Callable<Integer> {
             put(o, "fittedDb", p.fittedDb());
             put(o, "designDb", p.designDb());
             put(o, "uncertaintyDb", p.uncertaintyDb());
+            if (Double.isFinite(p.measuredDeg())) {
+                put(o, "measuredDeg", p.measuredDeg());
+                put(o, "fittedDeg", p.fittedDeg());
+                put(o, "designDeg", p.designDeg());
+                put(o, "uncertaintyDeg", p.uncertaintyDeg());
+            }
             o.put("trusted", p.trusted());
         }
         root.put("legend", Numbers.f(LEGEND, percent(dx.confidence()), percent(dx.confidence())));
@@ -538,6 +649,6 @@ final class DiagnoseCommand implements Callable<Integer> {
                 new FrequencyChart.Curve("residual", hz, residual, false),
                 new FrequencyChart.Curve("+1σ", hz, u, true),
                 new FrequencyChart.Curve("−1σ", hz, minus, true)), List.of(), List.of());
-        return new FrequencyChart("Diagnosis of " + name(), List.of(levels, res));
+        return new FrequencyChart("Diagnosis of " + sweepName(), List.of(levels, res));
     }
 }

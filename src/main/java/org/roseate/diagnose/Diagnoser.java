@@ -19,19 +19,25 @@ import org.hipparchus.util.Pair;
 import org.roseate.circuit.Design;
 
 /**
- * Estimates every part's actual value from a measured magnitude response: maximum a posteriori
- * estimation over θ_j = ln(value_j/nominal_j).
+ * Estimates every part's actual value from a measured response: maximum a posteriori estimation
+ * over θ_j = ln(value_j/nominal_j).
  *
- * <p>The cost is Σ_i ((L_i(θ) + g − m_i)/u_i)² + Σ_j c_j(θ_j), where m_i is the measured level in
- * dB with standard uncertainty u_i (trusted points only), L_i the model's 20·log10|H|, g a free
+ * <p>The cost is Σ_i ((L_i(θ) + g − m_i)/u_i)² + Σ_i (wrap(φ_i − Φ_i(θ))/v_i)² + Σ_j c_j(θ_j),
+ * where m_i is the measured level in dB with standard uncertainty u_i (trusted points only), φ_i the
+ * measured phase in degrees with standard uncertainty v_i (transfer captures; noise sources have
+ * none), Φ_i the model's arg H, wrap(·) to ±180°, L_i the model's 20·log10|H|, g a free
  * level offset in dB for noise-source captures (0 otherwise, with no prior), and c_j the prior's
  * cost −2·ln(p_j(θ)/p_j(0)) from the part's tolerance ({@link PartPrior}: a normal core with the
  * tolerance at ±2σ, plus a broad component for a wrong part), entered as the residual
  * sign(θ)·√c. With normal errors on the dB levels this is −2·ln of the posterior up to a constant. It is minimised by Levenberg–Marquardt
  * (Hipparchus 4.0.2) from the nominal values, with a forward-difference Jacobian.
  *
+ * Magnitude and phase enter as separate residuals with their own uncertainties: for a transfer
+ * estimate their random errors are uncorrelated to first order (Bendat and Piersol, Random Data,
+ * 4th ed., sec. 9.2, from memory), which is what makes this a complex residual in polar form.
+ *
  * <p>Uncertainty: the posterior covariance is taken as C = (JᵀWJ + P)⁻¹ at the optimum (Laplace
- * approximation), J the Jacobian of the levels, W = diag(1/u²), P the prior's information at the
+ * approximation), J the Jacobian of the levels and phases, W = diag(1/u², 1/v²), P the prior's information at the
  * estimate (1/σ² near the nominal). A part's credible
  * interval is exp(θ̂ ± z·√C_jj)·nominal with z the two-sided normal quantile of the confidence; its
  * probability of lying outside nominal·(1 ± t) is the normal mass outside [ln(1 − t), ln(1 + t)].
@@ -45,7 +51,7 @@ import org.roseate.circuit.Design;
  * groups by connecting parts whose correlation |Π_ij|/√(Π_ii·Π_jj) is at least
  * {@link #GROUP_LINK}.
  *
- * <p>Misfit: χ² = Σ((m_i − fitted_i)/u_i)² with ν = N − tr(F·C) degrees of freedom (the effective
+ * <p>Misfit: χ² over levels and phases with ν = N − tr(F·C) degrees of freedom, N the levels plus phases (the effective
  * number of parameters of a regularised least-squares fit); its upper-tail p-value below
  * {@link Diagnosis#MISFIT_P_VALUE} means no part values explain the measurement.
  */
@@ -98,6 +104,8 @@ public final class Diagnoser {
         double[] hzAll = measured.hz();
         double[] mAll = measured.measuredDb();
         double[] uAll = measured.uncertaintyDb();
+        double[] degAll = measured.measuredDeg();
+        double[] uDegAll = measured.uncertaintyDeg();
         int n = used.length;
         int p = priors.size();
         boolean free = measured.levelFree();
@@ -105,15 +113,27 @@ public final class Diagnoser {
         double[] hz = new double[n];
         double[] m = new double[n];
         double[] u = new double[n];
+        int[] phaseAt = new int[n];
+        int nph = 0;
         for (int k = 0; k < n; k++) {
             hz[k] = hzAll[used[k]];
             m[k] = mAll[used[k]];
             u[k] = uAll[used[k]];
+            if (Double.isFinite(degAll[used[k]])) {
+                phaseAt[nph++] = k;
+            }
+        }
+        phaseAt = Arrays.copyOf(phaseAt, nph);
+        double[] mDeg = new double[nph];
+        double[] uDeg = new double[nph];
+        for (int r = 0; r < nph; r++) {
+            mDeg[r] = degAll[used[phaseAt[r]]];
+            uDeg[r] = uDegAll[used[phaseAt[r]]];
         }
         double[] sigma = priors.stream().mapToDouble(PartPrior::sigmaLn).toArray();
         LogMagnitudeModel model = new LogMagnitudeModel(design, source, priors, hz);
 
-        Solver solver = new Solver(model, priors, m, u, free);
+        Solver solver = new Solver(model, priors, m, u, phaseAt, mDeg, uDeg, free);
         Solver.Fit best = solver.fit(new double[p]);
         int iterations = best.iterations();
         // The prior is not convex (a narrow core and a broad wrong-part component), so a search from
@@ -154,9 +174,11 @@ public final class Diagnoser {
         double g = free ? x[p] : 0;
         double[] db = new double[n];
         double[][] jac = new double[n][p];
+        double[] deg = nph > 0 ? new double[n] : null;
+        double[][] jacDeg = nph > 0 ? new double[n][p] : null;
 
-        // Information matrices at the optimum (whitened Jacobian rows of the data only).
-        model.dbAndJacobian(theta, db, jac);
+        // Information matrices at the optimum (whitened Jacobian rows of the data only: levels, then phases).
+        model.responseAndJacobian(theta, db, jac, deg, jacDeg);
         double[][] fisher = new double[q][q];
         for (int k = 0; k < n; k++) {
             double w = 1 / (u[k] * u[k]);
@@ -165,6 +187,15 @@ public final class Diagnoser {
                 for (int b = 0; b <= a; b++) {
                     double jb = b < p ? jac[k][b] : 1;
                     fisher[a][b] += w * ja * jb;
+                }
+            }
+        }
+        for (int r = 0; r < nph; r++) {
+            int k = phaseAt[r];
+            double w = 1 / (uDeg[r] * uDeg[r]);
+            for (int a = 0; a < p; a++) {
+                for (int b = 0; b <= a; b++) {
+                    fisher[a][b] += w * jacDeg[k][a] * jacDeg[k][b];
                 }
             }
         }
@@ -196,9 +227,11 @@ public final class Diagnoser {
         // Residuals over all points (untrusted ones shown, not counted).
         LogMagnitudeModel all = new LogMagnitudeModel(design, source, priors, hzAll);
         double[] fitted = new double[hzAll.length];
-        all.db(theta, fitted);
+        double[] fittedDeg = new double[hzAll.length];
+        all.response(theta, fitted, fittedDeg);
         double[] nominalDb = new double[hzAll.length];
-        all.db(new double[p], nominalDb);
+        double[] nominalDeg = new double[hzAll.length];
+        all.response(new double[p], nominalDb, nominalDeg);
         double designOffset = 0;
         if (free) {
             double[] nomUsed = new double[n];
@@ -212,14 +245,22 @@ public final class Diagnoser {
         double chi2 = 0;
         double ss = 0;
         double uu = 0;
+        double ssDeg = 0;
         for (int i = 0; i < hzAll.length; i++) {
             double f = fitted[i] + g;
-            points.add(new FitPoint(hzAll[i], mAll[i], f, nominalDb[i] + designOffset, uAll[i], trusted[i]));
+            boolean phase = Double.isFinite(degAll[i]);
+            points.add(new FitPoint(hzAll[i], mAll[i], f, nominalDb[i] + designOffset, uAll[i], trusted[i],
+                    degAll[i], phase ? fittedDeg[i] : Double.NaN, phase ? nominalDeg[i] : Double.NaN, uDegAll[i]));
             if (trusted[i]) {
                 double r = mAll[i] - f;
                 chi2 += r * r / (uAll[i] * uAll[i]);
                 ss += r * r;
                 uu += uAll[i] * uAll[i];
+                if (phase) {
+                    double rd = LogMagnitudeModel.wrapDeg(degAll[i] - fittedDeg[i]);
+                    chi2 += rd * rd / (uDegAll[i] * uDegAll[i]);
+                    ssDeg += rd * rd;
+                }
             }
         }
         double effectiveParameters = 0;
@@ -228,12 +269,12 @@ public final class Diagnoser {
                 effectiveParameters += fisher[a][b] * cov.getEntry(b, a);
             }
         }
-        double dof = Math.max(1, n - effectiveParameters);
+        double dof = Math.max(1, n + nph - effectiveParameters);
         double pValue = 1 - new ChiSquaredDistribution(dof).cumulativeProbability(chi2);
 
         List<List<String>> groups = ambiguityGroups(priors, fisher, sigma, free);
-        return new Diagnosis(parts, groups, Math.sqrt(ss / n), Math.sqrt(uu / n), chi2, dof, pValue,
-                free ? g : Double.NaN, points, confidence, iterations);
+        return new Diagnosis(parts, groups, Math.sqrt(ss / n), nph > 0 ? Math.sqrt(ssDeg / nph) : Double.NaN, nph,
+                Math.sqrt(uu / n), chi2, dof, pValue, free ? g : Double.NaN, points, confidence, iterations);
     }
 
     /** One Levenberg–Marquardt problem over (θ, g), reused from several starting points. */
@@ -245,33 +286,54 @@ public final class Diagnoser {
         private final List<PartPrior> priors;
         private final double[] m;
         private final double[] u;
+        private final int[] phaseAt;
+        private final double[] mDeg;
+        private final double[] uDeg;
         private final boolean free;
         private final int n;
+        private final int nph;
         private final int p;
         private final double[] target;
 
-        Solver(LogMagnitudeModel model, List<PartPrior> priors, double[] m, double[] u, boolean free) {
+        /**
+         * @param phaseAt indices into m of the points with a measured phase
+         * @param mDeg    their measured phases, degrees
+         * @param uDeg    their standard uncertainties, degrees
+         */
+        Solver(LogMagnitudeModel model, List<PartPrior> priors, double[] m, double[] u, int[] phaseAt, double[] mDeg,
+                double[] uDeg, boolean free) {
             this.model = model;
             this.priors = priors;
             this.m = m;
             this.u = u;
+            this.phaseAt = phaseAt;
+            this.mDeg = mDeg;
+            this.uDeg = uDeg;
             this.free = free;
             this.n = m.length;
+            this.nph = phaseAt.length;
             this.p = priors.size();
-            this.target = new double[n + p];
+            this.target = new double[n + nph + p];
             for (int k = 0; k < n; k++) {
                 target[k] = m[k] / u[k];
+            }
+            for (int r = 0; r < nph; r++) {
+                target[n + r] = mDeg[r] / uDeg[r];
             }
         }
 
         /** Posterior cost −2·ln p (up to a constant) at θ, the level offset profiled out when free. */
-        double cost(double[] theta, double[] db) {
-            model.db(theta, db);
+        double cost(double[] theta, double[] db, double[] deg) {
+            model.response(theta, db, deg);
             double g = free ? weightedOffset(m, db, u) : 0;
             double c = 0;
             for (int k = 0; k < n; k++) {
                 double r = (m[k] - db[k] - g) / u[k];
                 c += r * r;
+            }
+            for (int r = 0; r < nph; r++) {
+                double d = LogMagnitudeModel.wrapDeg(mDeg[r] - deg[phaseAt[r]]) / uDeg[r];
+                c += d * d;
             }
             for (int j = 0; j < p; j++) {
                 c += priors.get(j).cost(theta[j]);
@@ -283,12 +345,13 @@ public final class Diagnoser {
         double bestAlong(int j, double[] start) {
             double[] t = Arrays.copyOf(start, p);
             double[] db = new double[n];
+            double[] deg = nph > 0 ? new double[n] : null;
             double bestTheta = t[j];
-            double best = cost(t, db);
+            double best = cost(t, db, deg);
             double span = Math.log(10);
             for (int i = 0; i < RELEASE_GRID; i++) {
                 t[j] = -span + 2 * span * i / (RELEASE_GRID - 1);
-                double c = cost(t, db);
+                double c = cost(t, db, deg);
                 if (c < best) {
                     best = c;
                     bestTheta = t[j];
@@ -307,15 +370,18 @@ public final class Diagnoser {
             }
             double[] db = new double[n];
             double[][] jac = new double[n][p];
+            double[] deg = nph > 0 ? new double[n] : null;
+            double[][] jacDeg = nph > 0 ? new double[n][p] : null;
+            int rows = n + nph + p;
             LeastSquaresProblem problem = new LeastSquaresBuilder()
                     .start(s0)
                     .target(target)
                     .model(point -> {
                         double[] x = point.toArray();
-                        model.dbAndJacobian(Arrays.copyOf(x, p), db, jac);
+                        model.responseAndJacobian(Arrays.copyOf(x, p), db, jac, deg, jacDeg);
                         double g = free ? x[p] : 0;
-                        double[] v = new double[n + p];
-                        double[][] j = new double[n + p][q];
+                        double[] v = new double[rows];
+                        double[][] j = new double[rows][q];
                         for (int k = 0; k < n; k++) {
                             v[k] = (db[k] + g) / u[k];
                             for (int c = 0; c < p; c++) {
@@ -325,9 +391,18 @@ public final class Diagnoser {
                                 j[k][p] = 1 / u[k];
                             }
                         }
+                        // A phase row's value is the model's phase unwrapped to within ±180° of the
+                        // measured one, so target − value is the wrapped phase residual.
+                        for (int r = 0; r < nph; r++) {
+                            int k = phaseAt[r];
+                            v[n + r] = (mDeg[r] - LogMagnitudeModel.wrapDeg(mDeg[r] - deg[k])) / uDeg[r];
+                            for (int c = 0; c < p; c++) {
+                                j[n + r][c] = jacDeg[k][c] / uDeg[r];
+                            }
+                        }
                         for (int c = 0; c < p; c++) {
-                            v[n + c] = priors.get(c).residual(x[c]);
-                            j[n + c][c] = priors.get(c).residualSlope(x[c]);
+                            v[n + nph + c] = priors.get(c).residual(x[c]);
+                            j[n + nph + c][c] = priors.get(c).residualSlope(x[c]);
                         }
                         return new Pair<RealVector, RealMatrix>(new ArrayRealVector(v, false),
                                 new Array2DRowRealMatrix(j, false));

@@ -10,11 +10,15 @@ import java.util.List;
  * @param ambiguityGroups    sets of designators whose joint change the capture cannot resolve better
  *                           than the tolerances already do (see {@link Diagnoser}); a group of one is
  *                           a part the capture cannot pin down on its own
- * @param residualDb         RMS of measured − fitted over the trusted points, dB
+ * @param residualDb         RMS of measured − fitted level over the trusted points, dB
+ * @param residualDeg        RMS of measured − fitted phase over the trusted points with a phase,
+ *                           degrees; NaN when no phase was fitted (noise sources)
+ * @param phasePoints        trusted points whose phase entered the fit (0 for noise sources)
  * @param expectedResidualDb RMS of the points' standard uncertainties, dB: what residualDb would be
  *                           from the measurement's scatter alone
- * @param chiSquare          Σ((measured − fitted)/uncertainty)² over the trusted points
- * @param degreesOfFreedom   trusted points minus the effective number of fitted parameters
+ * @param chiSquare          Σ((measured − fitted)/uncertainty)² over the trusted points, levels and
+ *                           phases
+ * @param degreesOfFreedom   fitted levels and phases minus the effective number of fitted parameters
  * @param misfitPValue       P(χ² ≥ chiSquare) for a correct model; tiny values mean no part values
  *                           explain the measurement (a missing, extra or swapped part)
  * @param levelOffsetDb      fitted overall level offset, dB, when the level is free; else NaN
@@ -23,7 +27,7 @@ import java.util.List;
  * @param iterations         Levenberg–Marquardt iterations used
  */
 public record Diagnosis(List<PartEstimate> parts, List<List<String>> ambiguityGroups, double residualDb,
-        double expectedResidualDb, double chiSquare, double degreesOfFreedom, double misfitPValue,
+        double residualDeg, int phasePoints, double expectedResidualDb, double chiSquare, double degreesOfFreedom, double misfitPValue,
         double levelOffsetDb, List<FitPoint> points, double confidence, int iterations) {
     /** Below this χ² p-value the report says that no values explain the measurement. */
     public static final double MISFIT_P_VALUE = 1e-3;

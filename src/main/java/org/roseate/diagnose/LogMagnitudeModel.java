@@ -7,8 +7,8 @@ import org.roseate.circuit.Design;
 import org.roseate.model.CircuitModel;
 
 /**
- * 20·log10|H(j·2π·f)| of a design with its parts set to nominal·exp(θ), through the exact analog
- * model ({@link CircuitModel}); generic over stage kinds since it only replaces values by
+ * 20·log10|H(j·2π·f)| and arg H of a design with its parts set to nominal·exp(θ), through the exact
+ * analog model ({@link CircuitModel}); generic over stage kinds since it only replaces values by
  * designator. Not thread-safe (keeps scratch arrays).
  */
 final class LogMagnitudeModel {
@@ -37,28 +37,54 @@ final class LogMagnitudeModel {
 
     /** The levels in dB at every frequency for log-ratios θ (one per part) into {@code out}. */
     void db(double[] theta, double[] out) {
+        response(theta, out, null);
+    }
+
+    /** Levels in dB into {@code db} and, unless {@code deg} is null, arg H in degrees, (−180, 180], into {@code deg}. */
+    void response(double[] theta, double[] db, double[] deg) {
         Map<String, Double> values = new HashMap<>();
         for (int j = 0; j < parts.size(); j++) {
             values.put(parts.get(j).designator(), parts.get(j).nominal() * Math.exp(theta[j]));
         }
         CircuitModel.of(design.withValues(values), source).response(hz, re, im);
         for (int i = 0; i < hz.length; i++) {
-            out[i] = 10 * Math.log10(re[i] * re[i] + im[i] * im[i]);
+            db[i] = 10 * Math.log10(re[i] * re[i] + im[i] * im[i]);
+            if (deg != null) {
+                deg[i] = Math.toDegrees(Math.atan2(im[i], re[i]));
+            }
         }
     }
 
     /** Levels at θ into {@code db}, and ∂dB/∂θ_j into {@code jac[i][j]} by forward differences. */
     void dbAndJacobian(double[] theta, double[] db, double[][] jac) {
-        db(theta, db);
+        responseAndJacobian(theta, db, jac, null, null);
+    }
+
+    /**
+     * Levels and phases at θ with their Jacobians by forward differences (phase differences wrapped
+     * to ±180°); {@code deg} and {@code jacDeg} may be null for magnitude only.
+     */
+    void responseAndJacobian(double[] theta, double[] db, double[][] jac, double[] deg, double[][] jacDeg) {
+        response(theta, db, deg);
         double[] t = theta.clone();
         double[] shifted = new double[hz.length];
+        double[] shiftedDeg = deg == null ? null : new double[hz.length];
         for (int j = 0; j < parts.size(); j++) {
             t[j] = theta[j] + STEP_LN;
-            db(t, shifted);
+            response(t, shifted, shiftedDeg);
             for (int i = 0; i < hz.length; i++) {
                 jac[i][j] = (shifted[i] - db[i]) / STEP_LN;
+                if (deg != null) {
+                    jacDeg[i][j] = wrapDeg(shiftedDeg[i] - deg[i]) / STEP_LN;
+                }
             }
             t[j] = theta[j];
         }
+    }
+
+    /** An angle in degrees wrapped to (−180, 180]. */
+    static double wrapDeg(double d) {
+        double w = d - 360 * Math.floor((d + 180) / 360);
+        return w == -180 ? 180 : w;
     }
 }

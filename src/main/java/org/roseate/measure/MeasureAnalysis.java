@@ -160,7 +160,7 @@ final class MeasureAnalysis {
         double tEff = bankMeanSquare == null ? d.effectiveDurationSeconds() : bankSeconds;
         return new MeasureResult(c.source(), r, c.sampleRateHz(), c.seconds(), c.complete(), c.integrity(),
                 d.settings().segmentLength(), d.binWidthHz(), averages, tEff, d.unit().levelSymbol(), bands,
-                table.band(f.reference), f.slope, f.peak, f.designOffset, List.of(), corner, null);
+                table.band(f.reference), f.slope, f.peak, f.designOffset, densityPoints(c, d), corner, null);
     }
 
     /** Transfer result from a cross-spectral density. */
@@ -265,6 +265,81 @@ final class MeasureAnalysis {
                     20 * Math.log10(1 + eps), Math.toDegrees(eps),
                     t == null ? Double.NaN : refDb + t.dbPerOctave() * Math.log(p.hz() / hz[ref]) / Math.log(2),
                     m == null ? Double.NaN : 10 * Math.log10(m.magnitudeSquared(p.hz()))));
+        }
+        return out;
+    }
+
+    /**
+     * Power correlations of the Hann window's bins 0, 1 and 2 apart for white noise: 1, 4/9, 1/36
+     * (from the window's spectral coefficients ½, −¼, −¼: |Σ w_l w_{l+k}|² / (Σ w_l²)²; Harris 1978
+     * gives the same window, the arithmetic is ours).
+     */
+    private static final double[] HANN_BIN_POWER_CORRELATION = {1, 4.0 / 9, 1.0 / 36};
+
+    /**
+     * m/m_eff for the mean of m adjacent Hann bins' powers: 1 + 2·Σ_{l≥1} (1 − l/m)·ρ_l, ρ_l the
+     * correlations above (the variance of a mean of a stationary sequence, any statistics text).
+     */
+    static double pooledVarianceFactor(int m) {
+        double s = 1;
+        for (int l = 1; l < Math.min(m, HANN_BIN_POWER_CORRELATION.length); l++) {
+            s += 2 * (1 - (double) l / m) * HANN_BIN_POWER_CORRELATION[l];
+        }
+        return s;
+    }
+
+    /**
+     * Noise-source response points, only when the request names them ({@link MeasureRequest#responseHz}):
+     * at each point the (calibrated) density averaged over the m bins nearer to it than to its
+     * neighbours on a log-frequency axis (the cell between the geometric midpoints; at least the
+     * nearest bin). Its relative random error is ε = √(F(m)/(m·n_d)), F = {@link #pooledVarianceFactor},
+     * n_d the independent averages (the bandwidth–time form 1/√(B·T), Bendat and Piersol); the point
+     * carries 10·log10(1 + ε) dB. No phase or coherence (NaN); every point is trusted.
+     */
+    private static List<ResponsePoint> densityPoints(Context c, SpectralDensity d) {
+        double[] want = c.request().responseHz();
+        if (want == null) {
+            return List.of();
+        }
+        double df = d.binWidthHz();
+        double nyq = d.nyquistHz();
+        for (double p : want) {
+            if (p < df || p > nyq) {
+                throw new MeasureException(String.format(java.util.Locale.ROOT, "response point %s Hz is outside the "
+                        + "resolved range %.4g … %.6g Hz (bin width to Nyquist)", plain(p), df, nyq));
+            }
+        }
+        double[] hz = want.clone();
+        java.util.Arrays.sort(hz);
+        double[] density = d.density();
+        int last = density.length - 1;
+        double nd = independentAverages(d.effectiveAverages());
+        CircuitModel m = c.request().design();
+        List<ResponsePoint> out = new ArrayList<>();
+        int n = hz.length;
+        double[] edge = new double[n + 1];
+        for (int i = 1; i < n; i++) {
+            edge[i] = Math.sqrt(hz[i - 1] * hz[i]);
+        }
+        // the end cells are symmetric about their point in log f (one point alone: its nearest bin)
+        edge[0] = n > 1 ? hz[0] * hz[0] / edge[1] : hz[0];
+        edge[n] = n > 1 ? hz[n - 1] * hz[n - 1] / edge[n - 1] : hz[0];
+        for (int i = 0; i < n; i++) {
+            int k0 = Math.max(1, (int) Math.ceil(edge[i] / df - 1e-9));
+            int k1 = Math.min(last, (int) Math.floor(edge[i + 1] / df - 1e-9));
+            if (k0 > k1) {
+                k0 = Math.max(1, Math.min(last, (int) Math.round(hz[i] / df)));
+                k1 = k0;
+            }
+            double sum = 0;
+            for (int k = k0; k <= k1; k++) {
+                sum += density[k];
+            }
+            int bins = k1 - k0 + 1;
+            double eps = Math.sqrt(pooledVarianceFactor(bins) / (bins * nd));
+            out.add(new ResponsePoint(hz[i], 10 * Math.log10(sum / bins), Double.NaN, Double.NaN, true,
+                    10 * Math.log10(1 + eps), Double.NaN, Double.NaN,
+                    m == null ? Double.NaN : 10 * Math.log10(m.magnitudeSquared(hz[i]))));
         }
         return out;
     }

@@ -29,7 +29,10 @@ import org.roseate.spectrum.TransferEstimate;
  *                                    bands, dB, with its ±; {@link Estimate#NONE} without a target
  * @param designOffsetDb              the weighted mean of level minus design level over the counted
  *                                    bands, dB (NaN without a design)
- * @param points                      transfer mode: the response points; empty otherwise
+ * @param points                      transfer mode: the response points (|H|, phase, coherence); noise-source
+ *                                    mode: only when the request names frequencies, the power density
+ *                                    (level unit per hertz) pooled over the bins nearest each point, with
+ *                                    its ± and no phase; empty otherwise
  * @param calibrationCornerHz         the calibration's −1 dB low corner, Hz, or NaN
  * @param rawTransfer                 transfer mode: the estimate before calibration (to save a
  *                                    calibration from a loopback), or null

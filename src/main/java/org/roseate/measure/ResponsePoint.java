@@ -1,7 +1,8 @@
 package org.roseate.measure;
 
 /**
- * The measured response at one frequency (transfer mode).
+ * The measured response at one frequency: in transfer mode |H| and its phase; in noise-source mode
+ * (when asked for) the power density in dB per hertz, with NaN phase and coherence.
  *
  * @param hz             frequency, Hz
  * @param db             20·log10|H|, dB re 1

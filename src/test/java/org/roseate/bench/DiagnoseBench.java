@@ -22,20 +22,23 @@ import org.openjdk.jmh.annotations.Warmup;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DesignReader;
 import org.roseate.cli.RoseateCommand;
-import org.roseate.diagnose.CaptureResponses;
+import org.roseate.bands.BandFraction;
+import org.roseate.bands.BandTable;
+import org.roseate.compare.FrequencyRange;
+import org.roseate.diagnose.CaptureGrid;
 import org.roseate.diagnose.Diagnoser;
 import org.roseate.diagnose.Diagnosis;
 import org.roseate.diagnose.MeasuredResponse;
 import org.roseate.diagnose.PartPrior;
 import org.roseate.diagnose.SyntheticCapture;
-import org.roseate.spectrum.CrossSpectrumEstimator;
-import org.roseate.spectrum.WelchSettings;
+import org.roseate.measure.FileMeasure;
+import org.roseate.measure.MeasureRequest;
 
 /**
  * Issue 16, speed: {@code diagnose} of a 10-part design (presets/passive-pink.json, two parts moved)
  * from a 60 s, 48 kHz two-channel transfer capture. {@code solver} times the estimation alone on the
- * capture's measured response; {@code wholeCommand} the command in process (read the WAV, Welch,
- * solve, format). Target: under 5 s for the whole command.
+ * capture's measured response (magnitude and phase); {@code wholeCommand} the command in process
+ * (read the WAV through the measurement core, solve, format). Target: under 5 s for the whole command.
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.AverageTime)
@@ -60,16 +63,12 @@ public class DiagnoseBench {
         capture = Files.createTempFile("roseate-diagnose-bench-", ".wav");
         SyntheticCapture.write(capture, design.withValues(Map.of("R4", 6800 * 0.8, "C3", 33e-9 * 1.2)), RATE_HZ, 22,
                 true, 0.01, 42, 60 * RATE_HZ);
-        CrossSpectrumEstimator est = new CrossSpectrumEstimator();
-        est.prepare(RATE_HZ, WelchSettings.of(SEGMENT));
-        try (var reader = org.roseate.io.WavReader.open(capture)) {
-            double[] buf = new double[8192 * 2];
-            for (int got; (got = reader.readFrames(buf, 8192)) > 0; ) {
-                est.acceptInterleaved(buf, got, 2, 0, 1);
-            }
-        }
-        double[] band = CaptureResponses.band(RATE_HZ, SEGMENT);
-        measured = CaptureResponses.fromTransfer(est.snapshot().transfer(), band[0], band[1], "bench");
+        // The capture's response as the command reads it: through the measurement core.
+        double[] band = CaptureGrid.band(RATE_HZ, SEGMENT);
+        MeasureRequest q = MeasureRequest.transfer(BandTable.of(BandFraction.OCTAVE, band[0] * 16, band[1]),
+                new FrequencyRange(band[0], band[1]), null, 0, 1).withSegmentLength(SEGMENT)
+                .withResponseHz(CaptureGrid.points(RATE_HZ, SEGMENT));
+        measured = MeasuredResponse.of(FileMeasure.run(capture, q), "bench");
     }
 
     @TearDown(Level.Trial)

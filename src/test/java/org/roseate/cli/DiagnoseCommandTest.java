@@ -90,7 +90,7 @@ class DiagnoseCommandTest {
         assertTrue(ratio < 1.5, "χ²/ν = " + ratio);
         if (root.get("mode").asText().equals("noise")) {
             // Noise-source scatter follows the bandwidth–time product closely, so nor is it overstated
-            // by more than ~3σ (transfer captures add a floor, CaptureResponses.FLOOR_DB, so may read lower).
+            // by more than ~3σ (transfer captures add a floor, MeasuredResponse.FLOOR_DB, so may read lower).
             assertTrue(ratio > 0.5, "χ²/ν = " + ratio);
         }
     }
