@@ -222,7 +222,7 @@ final class DiagnoseCommand implements Callable<Integer> {
                 : Numbers.f("noise source on channel %d, level unknown%s, %d averages", ch[0] + 1,
                         cal != null ? ", calibrated" : "", res.averages());
         MeasuredResponse measured = MeasuredResponse.of(res, what);
-        return report(parts, measured, Numbers.f("segment %d (%.4g Hz bins)", n, f.sampleRateHz() / n),
+        return report(parts, measured, Numbers.f("segment %d (%.4g Hz bins)", n, (double) f.sampleRateHz() / n),
                 CaptureGrid.band(f.sampleRateHz(), n), n);
     }
 

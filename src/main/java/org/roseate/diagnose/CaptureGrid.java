@@ -32,8 +32,9 @@ public final class CaptureGrid {
 
     /**
      * The analysis points over {@link #band}: a log grid of {@link #POINTS_PER_DECADE} per decade from
-     * the band's low end, thinned so that no two points lie closer than {@link #MIN_SPACING_BINS}
-     * bins; ascending, Hz.
+     * the band's low end, each moved to the nearest FFT bin (so a transfer point is one bin's estimate,
+     * not an interpolation between two), thinned so that no two points lie closer than
+     * {@link #MIN_SPACING_BINS} bins; ascending, Hz.
      */
     public static double[] points(double sampleRateHz, int segmentLength) {
         double[] b = band(sampleRateHz, segmentLength);
@@ -42,10 +43,11 @@ public final class CaptureGrid {
         double step = Math.pow(10, 1.0 / POINTS_PER_DECADE);
         double last = Double.NEGATIVE_INFINITY;
         for (int i = 0; ; i++) {
-            double f = b[0] * Math.pow(step, i);
-            if (f > b[1] * (1 + 1e-12)) {
+            double g = b[0] * Math.pow(step, i);
+            if (g > b[1] * (1 + 1e-12)) {
                 break;
             }
+            double f = Math.min(Math.rint(g / df), Math.floor(b[1] / df + 1e-9)) * df;
             if (f - last >= MIN_SPACING_BINS * df * (1 - 1e-9)) {
                 out.add(f);
                 last = f;

@@ -131,7 +131,7 @@ public final class Diagnoser {
             uDeg[r] = uDegAll[used[phaseAt[r]]];
         }
         double[] sigma = priors.stream().mapToDouble(PartPrior::sigmaLn).toArray();
-        LogMagnitudeModel model = new LogMagnitudeModel(design, source, priors, hz);
+        LogMagnitudeModel model = new LogMagnitudeModel(design, source, priors, hz, measured.binHz(), free);
 
         Solver solver = new Solver(model, priors, m, u, phaseAt, mDeg, uDeg, free);
         Solver.Fit best = solver.fit(new double[p]);
@@ -225,7 +225,7 @@ public final class Diagnoser {
         }
 
         // Residuals over all points (untrusted ones shown, not counted).
-        LogMagnitudeModel all = new LogMagnitudeModel(design, source, priors, hzAll);
+        LogMagnitudeModel all = new LogMagnitudeModel(design, source, priors, hzAll, measured.binHz(), free);
         double[] fitted = new double[hzAll.length];
         double[] fittedDeg = new double[hzAll.length];
         all.response(theta, fitted, fittedDeg);

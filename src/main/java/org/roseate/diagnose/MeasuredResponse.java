@@ -29,9 +29,14 @@ import org.roseate.sweep.SweepUncertainty;
  * @param levelFree      true when the overall level is unknown (a noise source of unknown level):
  *                       the fit then adds a free offset in dB to the model
  * @param description    one line saying what was measured, for reports
+ * @param binHz          the bin width of the Hann-windowed FFT the estimates come from, Hz: each is
+ *                       the response averaged over the window's kernel, which the fit's model
+ *                       reproduces; 0 for estimates with no such smoothing (a swept sine). Every
+ *                       point must lie above one bin.
  */
 public record MeasuredResponse(double sampleRateHz, double[] hz, double[] measuredDb, double[] uncertaintyDb,
-        double[] measuredDeg, double[] uncertaintyDeg, boolean[] trusted, boolean levelFree, String description) {
+        double[] measuredDeg, double[] uncertaintyDeg, boolean[] trusted, boolean levelFree, String description,
+        double binHz) {
     /**
      * Floor of a magnitude uncertainty, 0.005 dB, combined in quadrature: it keeps weights finite where
      * the random error goes to zero (γ² → 1) and covers the H1 estimate's leakage bias, well below
@@ -70,16 +75,19 @@ public record MeasuredResponse(double sampleRateHz, double[] hz, double[] measur
                 throw new IllegalArgumentException("point " + i + " needs a phase and its uncertainty > 0, or neither");
             }
         }
+        if (!(binHz >= 0) || !Double.isFinite(binHz) || n > 0 && !(hz[0] > binHz)) {
+            throw new IllegalArgumentException("binHz=" + binHz + " must be finite, ≥ 0 and below every point");
+        }
         if (levelFree && hasPhase(measuredDeg)) {
             throw new IllegalArgumentException("a response of unknown level is a noise source's and has no phase");
         }
     }
 
-    /** A magnitude-only response (no phase at any point). */
+    /** A magnitude-only response (no phase at any point) of exact values (no window smoothing). */
     public MeasuredResponse(double sampleRateHz, double[] hz, double[] measuredDb, double[] uncertaintyDb,
             boolean[] trusted, boolean levelFree, String description) {
         this(sampleRateHz, hz, measuredDb, uncertaintyDb, nan(hz.length), nan(hz.length), trusted, levelFree,
-                description);
+                description, 0);
     }
 
     /**
@@ -118,7 +126,8 @@ public record MeasuredResponse(double sampleRateHz, double[] hz, double[] measur
                 uDeg[i] = Math.hypot(p.uncertaintyDeg(), FLOOR_DEG);
             }
         }
-        return new MeasuredResponse(r.sampleRateHz(), hz, db, u, deg, uDeg, trusted, !transfer, description);
+        return new MeasuredResponse(r.sampleRateHz(), hz, db, u, deg, uDeg, trusted, !transfer, description,
+                r.resolutionHz());
     }
 
     /**
@@ -154,7 +163,7 @@ public record MeasuredResponse(double sampleRateHz, double[] hz, double[] measur
             }
             trusted[i] = rows.get(i)[5] > 0;
         }
-        return new MeasuredResponse(r.spec().sampleRateHz(), c[0], c[1], c[2], c[3], c[4], trusted, false, description);
+        return new MeasuredResponse(r.spec().sampleRateHz(), c[0], c[1], c[2], c[3], c[4], trusted, false, description, 0);
     }
 
     private static double[] nan(int n) {
@@ -179,7 +188,8 @@ public record MeasuredResponse(double sampleRateHz, double[] hz, double[] measur
 
     /** This response with the phase left out (magnitude only). */
     public MeasuredResponse withoutPhase() {
-        return new MeasuredResponse(sampleRateHz, hz, measuredDb, uncertaintyDb, trusted, levelFree, description);
+        return new MeasuredResponse(sampleRateHz, hz, measuredDb, uncertaintyDb, nan(hz.length), nan(hz.length), trusted,
+                levelFree, description, binHz);
     }
 
     @Override

@@ -290,9 +290,10 @@ final class MeasureAnalysis {
 
     /**
      * Noise-source response points, only when the request names them ({@link MeasureRequest#responseHz}):
-     * at each point the (calibrated) density averaged over the m bins nearer to it than to its
-     * neighbours on a log-frequency axis (the cell between the geometric midpoints; at least the
-     * nearest bin). Its relative random error is ε = √(F(m)/(m·n_d)), F = {@link #pooledVarianceFactor},
+     * at each point the (calibrated) density averaged over the m = 2h + 1 bins centred on the bin
+     * nearest to it, h the largest that keeps them inside the point's cell (between the geometric
+     * midpoints to its neighbours; h = 0 gives the nearest bin alone). The point's frequency is the
+     * centre bin's, so the mean of a smooth density is its value there to second order. Its relative random error is ε = √(F(m)/(m·n_d)), F = {@link #pooledVarianceFactor},
      * n_d the independent averages (the bandwidth–time form 1/√(B·T), Bendat and Piersol); the point
      * carries 10·log10(1 + ε) dB. No phase or coherence (NaN); every point is trusted.
      */
@@ -325,21 +326,26 @@ final class MeasureAnalysis {
         edge[0] = n > 1 ? hz[0] * hz[0] / edge[1] : hz[0];
         edge[n] = n > 1 ? hz[n - 1] * hz[n - 1] / edge[n - 1] : hz[0];
         for (int i = 0; i < n; i++) {
-            int k0 = Math.max(1, (int) Math.ceil(edge[i] / df - 1e-9));
-            int k1 = Math.min(last, (int) Math.floor(edge[i + 1] / df - 1e-9));
-            if (k0 > k1) {
-                k0 = Math.max(1, Math.min(last, (int) Math.round(hz[i] / df)));
-                k1 = k0;
+            // the bins symmetric about the nearest bin that stay inside the cell, so the mean of a
+            // smooth density is its value at the centre bin to second order
+            int centre = Math.max(1, Math.min(last, (int) Math.round(hz[i] / df)));
+            int half = 0;
+            while (centre - half - 1 >= 1 && centre + half + 1 <= last && (centre - half - 1) * df >= edge[i] * (1 - 1e-12)
+                    && (centre + half + 1) * df < edge[i + 1] * (1 - 1e-12)) {
+                half++;
             }
+            int k0 = centre - half;
+            int k1 = centre + half;
             double sum = 0;
             for (int k = k0; k <= k1; k++) {
                 sum += density[k];
             }
             int bins = k1 - k0 + 1;
             double eps = Math.sqrt(pooledVarianceFactor(bins) / (bins * nd));
-            out.add(new ResponsePoint(hz[i], 10 * Math.log10(sum / bins), Double.NaN, Double.NaN, true,
+            double f = centre * df;
+            out.add(new ResponsePoint(f, 10 * Math.log10(sum / bins), Double.NaN, Double.NaN, true,
                     10 * Math.log10(1 + eps), Double.NaN, Double.NaN,
-                    m == null ? Double.NaN : 10 * Math.log10(m.magnitudeSquared(hz[i]))));
+                    m == null ? Double.NaN : 10 * Math.log10(m.magnitudeSquared(f))));
         }
         return out;
     }

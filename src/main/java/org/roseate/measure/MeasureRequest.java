@@ -28,8 +28,8 @@ import org.roseate.spectrum.WelchSettings;
  * @param responseChannel     zero-based: the measured channel (noise source) or the response channel
  * @param referenceChannel    zero-based reference channel in transfer mode; −1 in noise-source mode
  * @param responseHz          transfer mode: response points, Hz; null for a log grid, 20 per decade,
- *                            over the range. Noise-source mode: density points, each pooled over the
- *                            bins nearest to it (see {@link MeasureResult#points}); null for none
+ *                            over the range. Noise-source mode: density points, each pooled over bins
+ *                            centred on the bin nearest to it (see {@link MeasureResult#points}); null for none
  * @param coherenceThreshold  transfer mode: a band or point is trusted when its γ² reaches this, (0, 1]
  */
 public record MeasureRequest(MeasureMode mode, BandReader reader, BandTable table, FrequencyRange range,

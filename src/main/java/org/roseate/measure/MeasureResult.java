@@ -31,8 +31,9 @@ import org.roseate.spectrum.TransferEstimate;
  *                                    bands, dB (NaN without a design)
  * @param points                      transfer mode: the response points (|H|, phase, coherence); noise-source
  *                                    mode: only when the request names frequencies, the power density
- *                                    (level unit per hertz) pooled over the bins nearest each point, with
- *                                    its ± and no phase; empty otherwise
+ *                                    (level unit per hertz) pooled over bins centred on the bin nearest
+ *                                    each point (whose frequency the point takes), with its ± and no
+ *                                    phase; empty otherwise
  * @param calibrationCornerHz         the calibration's −1 dB low corner, Hz, or NaN
  * @param rawTransfer                 transfer mode: the estimate before calibration (to save a
  *                                    calibration from a loopback), or null
