@@ -193,4 +193,93 @@ class DiagnoserTest {
         // (the RMS of 73 normal deviates has a relative standard deviation of about 1/√146 = 8 %).
         assertEquals(0.02, dx.residualDb(), 0.006);
     }
+
+    /**
+     * A synthetic transfer response with phase: the truth's |H| and arg H plus independent normal
+     * scatter, u dB on the level and the same relative complex error on the phase, u·ln10/20 rad (a
+     * circular complex error splits equally into log-magnitude and phase; Bendat and Piersol give the
+     * same ε for both, sec. 9.2, from memory).
+     */
+    static MeasuredResponse syntheticWithPhase(Design design, Map<String, Double> truth, double uDb, Random rnd) {
+        double[] hz = grid();
+        double[] re = new double[hz.length];
+        double[] im = new double[hz.length];
+        CircuitModel.of(design.withValues(truth), "truth").response(hz, re, im);
+        double uDeg = Math.toDegrees(uDb * Math.log(10) / 20);
+        double[] db = new double[hz.length];
+        double[] deg = new double[hz.length];
+        double[] u = new double[hz.length];
+        double[] ud = new double[hz.length];
+        boolean[] trusted = new boolean[hz.length];
+        for (int i = 0; i < hz.length; i++) {
+            db[i] = 10 * Math.log10(re[i] * re[i] + im[i] * im[i]) + uDb * rnd.nextGaussian();
+            deg[i] = Math.toDegrees(Math.atan2(im[i], re[i])) + uDeg * rnd.nextGaussian();
+            u[i] = uDb;
+            ud[i] = uDeg;
+            trusted[i] = true;
+        }
+        return new MeasuredResponse(48000, hz, db, u, deg, ud, trusted, false, "synthetic with phase", 0);
+    }
+
+    @Test
+    void withPhaseMovedPartsAreNamedAndRecovered() {
+        Design d = read(BENCH);
+        List<PartPrior> priors = PartPrior.of(d, Map.of());
+        Random rnd = new Random(31);
+        Map<String, Double> truth = withinTolerance(priors, rnd);
+        truth.put("C3", d.component("C3").orElseThrow().value() * 1.25);
+        truth.put("R4", d.component("R4").orElseThrow().value() * 0.8);
+        Diagnosis dx = Diagnoser.diagnose(d, "d", priors, syntheticWithPhase(d, truth, 0.02, rnd), 0.95);
+        Set<String> flagged = new TreeSet<>();
+        dx.flagged().forEach(p -> flagged.add(p.designator()));
+        assertEquals(Set.of("C3", "R4"), flagged, () -> "flagged parts; " + dx.parts());
+        for (String k : List.of("C3", "R4")) {
+            PartEstimate e = dx.parts().stream().filter(p -> p.designator().equals(k)).findFirst().orElseThrow();
+            // Issue 16: moved values recovered within 3 %.
+            assertEquals(1, e.estimate() / truth.get(k), 0.03, () -> k + ": " + e);
+        }
+        assertEquals(grid().length, dx.phasePoints());
+        assertFalse(dx.modelMisfit(), () -> "p=" + dx.misfitPValue());
+        // The inverting stage's impedance-scaling group leaves H itself unchanged, phase included.
+        assertTrue(dx.ambiguityGroups().contains(priors.stream().map(PartPrior::designator).toList()),
+                () -> "groups " + dx.ambiguityGroups());
+    }
+
+    @Test
+    void withPhaseUnchangedBuildsAreNotFlaggedInAtLeast95Of100Trials() {
+        for (Path file : List.of(BENCH, PASSIVE)) {
+            Design d = read(file);
+            List<PartPrior> priors = PartPrior.of(d, Map.of());
+            int clean = 0;
+            for (int trial = 0; trial < 100; trial++) {
+                Random rnd = new Random(2000 + trial);
+                Map<String, Double> truth = withinTolerance(priors, rnd);
+                Diagnosis dx = Diagnoser.diagnose(d, "d", priors, syntheticWithPhase(d, truth, 0.02, rnd), 0.95);
+                clean += dx.flagged().isEmpty() ? 1 : 0;
+            }
+            // Issue 16: no part flagged at the stated confidence (95 %) in at least 95 of 100 trials.
+            assertTrue(clean >= 95, file + ": clean in " + clean + " of 100");
+        }
+    }
+
+    @Test
+    void phaseResolvesTheLoadCapacitorTheMagnitudeBarelySees() {
+        // presets/ladder-rc.json: the unbuffered output section R6–C5 (with the 1 MΩ load R7). Its corner
+        // moves |H| only a little inside the band, but arg H turns through it; with the phase the
+        // capacitor is pinned well inside its 5 % tolerance (on a 44 s synthetic transfer capture read
+        // through the measurement core, C5's 95 % interval went from ±4.97 % to ±1.44 %; the bar here
+        // is half, on synthetic points).
+        Design d = read(Path.of("presets/ladder-rc.json"));
+        List<PartPrior> priors = PartPrior.of(d, Map.of("R", org.roseate.value.Tolerance.parse("1%"),
+                "C", org.roseate.value.Tolerance.parse("5%")));
+        MeasuredResponse m = syntheticWithPhase(d, Map.of(), 0.01, new Random(41));
+        double withPhase = halfWidth(Diagnoser.diagnose(d, "d", priors, m, 0.95), "C5");
+        double magnitudeOnly = halfWidth(Diagnoser.diagnose(d, "d", priors, m.withoutPhase(), 0.95), "C5");
+        assertTrue(withPhase < 0.5 * magnitudeOnly, () -> "C5 ± " + withPhase + " with phase, " + magnitudeOnly + " without");
+    }
+
+    private static double halfWidth(Diagnosis dx, String designator) {
+        PartEstimate e = dx.parts().stream().filter(p -> p.designator().equals(designator)).findFirst().orElseThrow();
+        return (e.high() / e.low() - 1) / 2;
+    }
 }
