@@ -279,6 +279,9 @@ final class DiagnoseCommand implements Callable<Integer> {
                 throw new UserInputException(name() + ": cannot read (" + e.getMessage() + ")");
             }
         }
+        if (!live && channels < 2) {
+            throw new UserInputException(file + ": --reference-channel needs two channels; the file has 1");
+        }
         // live: the input is opened with as many channels as the two named need
         int avail = live ? Math.max(channels, Math.max(referenceChannel, channel == null ? 0 : channel)) : channels;
         int ref = index(referenceChannel, "--reference-channel", avail);
