@@ -300,6 +300,13 @@ final class DiagnoseCommand implements Callable<Integer> {
         err.flush();
         double[] band = {r.spec().startHz(), Math.min(CaptureGrid.HIGH_FRACTION_OF_RATE * rate,
                 Math.min(r.spec().endHz(), SensitivityBand.GRID_HIGH_HZ))};
+        for (SensitivityBand b : parts.bands()) {
+            if (!b.seenWithin(band[0], band[1])) {
+                throw new UserInputException(Numbers.f("%s: the sweep covers %s to %s, but %s shapes the response only "
+                        + "from %s to %s; widen --sweep-from/--sweep-to", sweepName(), Numbers.hz(band[0]),
+                        Numbers.hz(band[1]), b.designator(), Numbers.hz(b.fromHz()), Numbers.hz(b.toHz())));
+            }
+        }
         MeasuredResponse measured;
         try {
             measured = MeasuredResponse.of(r, band[0], band[1], Numbers.f("swept sine %s to %s, %.3g s, transfer from "
