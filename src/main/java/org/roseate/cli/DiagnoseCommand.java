@@ -659,6 +659,18 @@ final class DiagnoseCommand implements Callable<Integer> {
                 new FrequencyChart.Curve("residual", hz, residual, false),
                 new FrequencyChart.Curve("+1σ", hz, u, true),
                 new FrequencyChart.Curve("−1σ", hz, minus, true)), List.of(), List.of());
-        return new FrequencyChart("Diagnosis of " + sweepName(), List.of(levels, res));
+        List<FitPoint> ph = t.stream().filter(x -> Double.isFinite(x.measuredDeg())).toList();
+        if (ph.isEmpty()) {
+            return new FrequencyChart("Diagnosis of " + sweepName(), List.of(levels, res));
+        }
+        double[] phz = ph.stream().mapToDouble(FitPoint::hz).toArray();
+        double[] pres = ph.stream().mapToDouble(FitPoint::residualDeg).toArray();
+        double[] pu = ph.stream().mapToDouble(FitPoint::uncertaintyDeg).toArray();
+        double[] pminus = Arrays.stream(pu).map(x -> -x).toArray();
+        FrequencyChart.Panel phase = new FrequencyChart.Panel("measured − fitted phase (°)", List.of(
+                new FrequencyChart.Curve("phase residual", phz, pres, false),
+                new FrequencyChart.Curve("+1σ", phz, pu, true),
+                new FrequencyChart.Curve("−1σ", phz, pminus, true)), List.of(), List.of());
+        return new FrequencyChart("Diagnosis of " + sweepName(), List.of(levels, res, phase));
     }
 }
