@@ -4,11 +4,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
-import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.file.AccessDeniedException;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -18,8 +14,8 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DesignReader;
+import org.roseate.diagnose.CaptureDiagnosis;
 import org.roseate.diagnose.CaptureResponses;
-import org.roseate.diagnose.Diagnoser;
 import org.roseate.diagnose.Diagnosis;
 import org.roseate.diagnose.DiagnosisException;
 import org.roseate.diagnose.FitPoint;
@@ -27,18 +23,9 @@ import org.roseate.diagnose.MeasuredResponse;
 import org.roseate.diagnose.MissingToleranceException;
 import org.roseate.diagnose.PartEstimate;
 import org.roseate.diagnose.PartPrior;
-import org.roseate.diagnose.SensitivityBand;
-import org.roseate.io.WavFormat;
-import org.roseate.io.WavFormatException;
-import org.roseate.io.WavReader;
 import org.roseate.plot.FrequencyChart;
 import org.roseate.spectrum.Calibration;
 import org.roseate.spectrum.CalibrationException;
-import org.roseate.spectrum.CrossSpectrumEstimator;
-import org.roseate.spectrum.SpectralDensity;
-import org.roseate.spectrum.TransferEstimate;
-import org.roseate.spectrum.WelchEstimator;
-import org.roseate.spectrum.WelchSettings;
 import org.roseate.value.ComponentKind;
 import org.roseate.value.EngineeringValue;
 import org.roseate.value.Tolerance;
@@ -58,10 +45,6 @@ final class DiagnoseCommand implements Callable<Integer> {
             + (int) PartPrior.K_SIGMA + "σ, plus a " + (int) Math.round(PartPrior.WRONG_PART_PROBABILITY * 100)
             + " %% chance of a wrong part); Levenberg–Marquardt. Interval: central %s from the posterior covariance. "
             + "P(outside): posterior probability that the part lies outside its tolerance; flagged at %s and above.";
-    private static final int BLOCK_FRAMES = 8192;
-    /** At least this many segments for an automatic segment length, so scatter estimates are stable. */
-    private static final int MIN_SEGMENTS = 16;
-    private static final int MIN_SEGMENT = 256;
 
     enum Format { table, json, csv }
 
@@ -162,14 +145,6 @@ final class DiagnoseCommand implements Callable<Integer> {
         CompareCommand.checkPlotName(plot);
         Design design = DesignReader.read(designFile);
         String source = designFile.getFileName().toString();
-        List<PartPrior> priors;
-        try {
-            priors = PartPrior.of(design, tolerances());
-        } catch (MissingToleranceException e) {
-            throw new UserInputException(source + ": no tolerance for " + String.join(", ", e.designators())
-                    + "; give them with --tolerance R=1%,C=5%");
-        }
-        List<SensitivityBand> bands = SensitivityBand.of(design, source, priors);
         Calibration cal = null;
         if (calibration != null) {
             try {
@@ -178,46 +153,31 @@ final class DiagnoseCommand implements Callable<Integer> {
                 throw new UserInputException(e.getMessage());
             }
         }
-        try (WavReader reader = open()) {
-            WavFormat f = reader.format();
-            if (cal != null) {
-                try {
-                    cal.checkRate(f.sampleRateHz());
-                } catch (CalibrationException e) {
-                    throw new UserInputException(e.getMessage());
-                }
-            }
-            int[] ch = channels(f);
-            checkRate(f.sampleRateHz(), bands);
-            int n = segmentLength(f.sampleRateHz(), reader.frames(), bands);
-            double[] band = CaptureResponses.band(f.sampleRateHz(), n);
-            MeasuredResponse measured = ch.length == 2
-                    ? transfer(reader, f, n, ch[0], ch[1], cal, band)
-                    : noise(reader, f, n, ch[0], cal, band);
-            checkTrusted(measured);
-            Diagnosis dx;
-            try {
-                dx = Diagnoser.diagnose(design, source, priors, measured, Diagnoser.DEFAULT_CONFIDENCE);
-            } catch (DiagnosisException e) {
-                throw new UserInputException(name() + ": " + e.getMessage());
-            }
-            if (plot != null) {
-                CompareCommand.writePlot(chart(dx), plot, force);
-            }
-            String out = switch (format) {
-                case json -> json(design, measured, dx, n);
-                case csv -> csv(design, dx);
-                default -> table(design, measured, dx, n, band);
-            };
-            PrintWriter pw = spec.commandLine().getOut();
-            pw.print(out);
-            pw.flush();
-            return 0;
-        } catch (WavFormatException e) {
+        CaptureDiagnosis.Outcome o;
+        try {
+            o = CaptureDiagnosis.run(new CaptureDiagnosis.Request(design, source, file, referenceChannel, channel,
+                    tolerances(), cal, segment));
+        } catch (MissingToleranceException e) {
+            throw new UserInputException(source + ": no tolerance for " + String.join(", ", e.designators())
+                    + "; give them with --tolerance R=1%,C=5%");
+        } catch (DiagnosisException e) {
             throw new UserInputException(e.getMessage());
-        } catch (IOException e) {
-            throw new UserInputException(name() + ": cannot read (" + e.getMessage() + ")");
         }
+        MeasuredResponse measured = o.measured();
+        Diagnosis dx = o.diagnosis();
+        int n = o.segmentLength();
+        if (plot != null) {
+            CompareCommand.writePlot(chart(dx), plot, force);
+        }
+        String out = switch (format) {
+            case json -> json(design, measured, dx, n);
+            case csv -> csv(design, dx);
+            default -> table(design, measured, dx, n, o.bandHz());
+        };
+        PrintWriter pw = spec.commandLine().getOut();
+        pw.print(out);
+        pw.flush();
+        return 0;
     }
 
     /** Parses --tolerance "R=1%,C=5%,R3=0.1%". */
@@ -240,144 +200,6 @@ final class DiagnoseCommand implements Callable<Integer> {
             }
         }
         return map;
-    }
-
-    private WavReader open() throws IOException {
-        if (Files.isDirectory(file)) {
-            throw new UserInputException(file + ": is a folder, not a WAV file");
-        }
-        try {
-            return WavReader.open(file);
-        } catch (NoSuchFileException e) {
-            throw new UserInputException(file + ": no such file");
-        } catch (AccessDeniedException e) {
-            throw new UserInputException(file + ": permission denied");
-        }
-    }
-
-    /** {reference, response} for a transfer capture, {channel} for a noise-source capture; zero-based. */
-    private int[] channels(WavFormat f) {
-        if (referenceChannel == null) {
-            if (channel == null && f.channels() > 1) {
-                throw new UserInputException(file + ": has " + f.channels() + " channels; name the reference with "
-                        + "--reference-channel N (transfer capture) or the channel with --channel N (noise-source capture)");
-            }
-            return new int[] {index(channel == null ? 1 : channel, "--channel", f.channels())};
-        }
-        if (f.channels() < 2) {
-            throw new UserInputException(file + ": --reference-channel needs two channels; the file has 1");
-        }
-        int ref = index(referenceChannel, "--reference-channel", f.channels());
-        int resp;
-        if (channel != null) {
-            resp = index(channel, "--channel", f.channels());
-        } else if (f.channels() == 2) {
-            resp = 1 - ref;
-        } else {
-            throw new UserInputException(file + ": has " + f.channels() + " channels; name the response with --channel");
-        }
-        if (resp == ref) {
-            throw new UserInputException("--channel and --reference-channel are both " + (ref + 1) + "; they must differ");
-        }
-        return new int[] {ref, resp};
-    }
-
-    private int index(int oneBased, String option, int channels) {
-        if (oneBased < 1 || oneBased > channels) {
-            throw new UserInputException(file + ": " + option + " " + oneBased + " is out of range; the file has "
-                    + channels + (channels == 1 ? " channel" : " channels"));
-        }
-        return oneBased - 1;
-    }
-
-    /** Refuses a rate whose analysed band ends below where some part shapes the response. */
-    private void checkRate(double rateHz, List<SensitivityBand> bands) {
-        double hi = CaptureResponses.band(rateHz, WelchSettings.MAX_SEGMENT_LENGTH)[1];
-        SensitivityBand worst = null;
-        for (SensitivityBand b : bands) {
-            if (b.fromHz() > hi && (worst == null || b.fromHz() > worst.fromHz())) {
-                worst = b;
-            }
-        }
-        if (worst != null) {
-            throw new UserInputException(Numbers.f("%s: at %s the analysed band ends at %s, below %s, where %s starts "
-                    + "to shape the response; capture at %.0f Hz or faster", file, Numbers.hz(rateHz), Numbers.hz(hi),
-                    Numbers.hz(worst.fromHz()), worst.designator(),
-                    Math.ceil(worst.fromHz() / CaptureResponses.HIGH_FRACTION_OF_RATE)));
-        }
-    }
-
-    /**
-     * The FFT length: --segment, or the smallest power of two whose analysed band starts at or
-     * below half the lowest frequency at which every part still shows, within the capture's length.
-     */
-    private int segmentLength(double rateHz, long frames, List<SensitivityBand> bands) {
-        double needLo = bands.stream().mapToDouble(SensitivityBand::toHz).min().orElse(20);
-        if (segment != null) {
-            if (segment < MIN_SEGMENT || segment > WelchSettings.MAX_SEGMENT_LENGTH || segment % 2 != 0) {
-                throw new UserInputException("--segment: expected an even number of samples from " + MIN_SEGMENT
-                        + " to " + WelchSettings.MAX_SEGMENT_LENGTH + ", found " + segment);
-            }
-            if (frames < segment) {
-                throw new UserInputException(Numbers.f("%s: the capture (%d frames) is shorter than one segment of %d",
-                        file, frames, segment));
-            }
-            return segment;
-        }
-        int wanted = MIN_SEGMENT;
-        while (wanted < WelchSettings.MAX_SEGMENT_LENGTH
-                && CaptureResponses.LOW_BINS * rateHz / wanted > needLo / 2) {
-            wanted *= 2;
-        }
-        int n = wanted;
-        while (n > MIN_SEGMENT && (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
-            n /= 2;
-        }
-        if (CaptureResponses.LOW_BINS * rateHz / n > needLo || (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
-            SensitivityBand b = bands.stream().min((x, y) -> Double.compare(x.toHz(), y.toHz())).orElseThrow();
-            throw new UserInputException(Numbers.f("%s: %.2f s is too short to see %s, which shapes the response below %s; "
-                    + "record at least %.0f s", file, frames / rateHz, b.designator(), Numbers.hz(b.toHz()),
-                    Math.ceil((double) wanted * (MIN_SEGMENTS + 1) / 2 / rateHz)));
-        }
-        return n;
-    }
-
-    private MeasuredResponse transfer(WavReader reader, WavFormat f, int n, int ref, int resp, Calibration cal,
-            double[] band) throws IOException {
-        CrossSpectrumEstimator est = new CrossSpectrumEstimator();
-        est.prepare(f.sampleRateHz(), WelchSettings.of(n));
-        double[] buf = new double[BLOCK_FRAMES * f.channels()];
-        for (int got; (got = reader.readFrames(buf, BLOCK_FRAMES)) > 0; ) {
-            est.acceptInterleaved(buf, got, f.channels(), ref, resp);
-        }
-        TransferEstimate h = est.snapshot().transfer();
-        if (cal != null) {
-            h = cal.apply(h);
-        }
-        return CaptureResponses.fromTransfer(h, band[0], band[1], Numbers.f("transfer from channel %d (reference) to "
-                + "channel %d%s, %d averages", ref + 1, resp + 1, cal != null ? ", calibrated" : "", h.averages()));
-    }
-
-    private MeasuredResponse noise(WavReader reader, WavFormat f, int n, int ch, Calibration cal, double[] band)
-            throws IOException {
-        WelchEstimator est = new WelchEstimator();
-        est.prepare(f.sampleRateHz(), WelchSettings.of(n));
-        double[] buf = new double[BLOCK_FRAMES * f.channels()];
-        for (int got; (got = reader.readFrames(buf, BLOCK_FRAMES)) > 0; ) {
-            est.acceptInterleaved(buf, got, f.channels(), ch);
-        }
-        SpectralDensity d = est.snapshot();
-        return CaptureResponses.fromNoise(d, band[0], band[1], cal, Numbers.f("noise source on channel %d, level "
-                + "unknown%s, %d averages", ch + 1, cal != null ? ", calibrated" : "", d.averages()));
-    }
-
-    /** Refuses a capture that has too few trusted points to say anything. */
-    private void checkTrusted(MeasuredResponse m) {
-        if (m.trustedCount() < Diagnoser.MIN_TRUSTED_POINTS) {
-            throw new UserInputException(Numbers.f("%s: coherence is below %.2f at %d of %d points, too low to say "
-                    + "anything about the parts; check the wiring, the channels and the test level", file,
-                    CaptureResponses.COHERENCE_THRESHOLD, m.size() - m.trustedCount(), m.size()));
-        }
     }
 
     private static ComponentKind kind(Design d, String designator) {
