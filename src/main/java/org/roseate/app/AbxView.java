@@ -115,6 +115,7 @@ final class AbxView {
     private String nameA;
     private String nameB;
     private double levelDbfs;
+    private boolean settingFile;
 
     /**
      * @param players makes the output for one test (the sound card in the window)
@@ -183,7 +184,7 @@ final class AbxView {
     }
 
     private void pickFile(Source s, boolean a) {
-        if (s != Source.FILE) {
+        if (s != Source.FILE || settingFile) {
             return;
         }
         window.prompts().openFile(window.stage(), "Design file for " + (a ? "A" : "B"), "Design files (*.json)", "*.json")
@@ -208,7 +209,12 @@ final class AbxView {
         } else {
             fileB = p;
         }
-        (a ? sourceA : sourceB).setValue(Source.FILE);
+        settingFile = true;
+        try {
+            (a ? sourceA : sourceB).setValue(Source.FILE);
+        } finally {
+            settingFile = false;
+        }
     }
 
     private void running(boolean on) {

@@ -98,7 +98,7 @@ final class BudgetPanel {
     /** Recomputes for the current design and settings; only the newest request's answer is shown. */
     void recompute() {
         CircuitModel m = window.model();
-        if (m == null) {
+        if (m == null || worker.isShutdown()) {
             return;
         }
         AnalysisSettings s = window.settings();

@@ -61,6 +61,7 @@ final class FitView {
     private final TextField limits = new TextField("R=1k-2M2,C=100p-1u");
     private final Spinner<Integer> starts = new Spinner<>(1, 1000, 4);
     private final TextField seed = new TextField("1");
+    private final TextField hold = new TextField();
     private final CheckBox freeInput = new CheckBox("Free the input part");
     private final Button run = new Button("Fit");
     private final Button cancel = new Button("Cancel");
@@ -79,6 +80,7 @@ final class FitView {
         starts.setEditable(true);
         seed.setPrefColumnCount(6);
         limits.setPrefColumnCount(16);
+        hold.setPromptText("parts kept exactly, e.g. R2,C1");
         GridPane g = new GridPane();
         g.setHgap(8);
         g.setVgap(6);
@@ -88,6 +90,7 @@ final class FitView {
         g.addRow(r++, new Label("Limits"), limits);
         g.addRow(r++, new Label("Starts"), starts);
         g.addRow(r++, new Label("Seed"), seed);
+        g.addRow(r++, new Label("Hold"), hold);
         g.add(freeInput, 1, r++);
         Label note = new Label("Target, range and bands: those of the Design view. Held: the design's own gain at 1 kHz, "
                 + "the input part (unless freed) and inductors, as fit --from holds them.");
@@ -137,6 +140,17 @@ final class FitView {
         List<String> held = new ArrayList<>();
         if (!freeInput.isSelected()) {
             held.addAll(Topologies.inputParts(start));
+        }
+        for (String h : hold.getText().split(",")) {
+            String d = h.trim();
+            if (d.isEmpty()) {
+                continue;
+            }
+            if (start.component(d).isEmpty()) {
+                throw new IllegalArgumentException("hold: no part '" + d + "' in the design; its parts are "
+                        + String.join(" ", start.components().stream().map(Component::designator).toList()));
+            }
+            held.add(d);
         }
         FitPlan plan = FitPlan.of(start, held);
         if (plan.free().isEmpty()) {
@@ -251,6 +265,10 @@ final class FitView {
 
     TableView<Row> table() {
         return table;
+    }
+
+    TextField hold() {
+        return hold;
     }
 
     Spinner<Integer> starts() {

@@ -192,6 +192,14 @@ final class MenuBarBuilder {
         s.show();
     }
 
+    ChartExport chartExport() {
+        return export;
+    }
+
+    RecentFiles recent() {
+        return recent;
+    }
+
     Menu recentMenu() {
         return recentMenu;
     }
