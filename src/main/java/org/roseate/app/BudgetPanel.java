@@ -16,6 +16,7 @@ import javafx.scene.control.ProgressBar;
 import javafx.scene.control.ScrollPane;
 import javafx.scene.control.Tooltip;
 import javafx.scene.layout.GridPane;
+import javafx.scene.layout.HBox;
 import javafx.scene.layout.VBox;
 import org.roseate.budget.BudgetResult;
 import org.roseate.budget.NoiseBudget;
@@ -52,7 +53,7 @@ final class BudgetPanel {
     private final AtomicLong generation = new AtomicLong();
     private final ObjectProperty<BudgetResult> result = new SimpleObjectProperty<>();
     private final Label summary = new Label("The budget appears once the design reads without error.");
-    private final GridPane stages = new GridPane();
+    private final VBox stages = new VBox(6);
     private final GridPane contributors = new GridPane();
     private final VBox box = new VBox(8);
     private final ScrollPane root = new ScrollPane(box);
@@ -67,8 +68,6 @@ final class BudgetPanel {
         contribTitle.getStyleClass().add("subsection-title");
         summary.setWrapText(true);
         summary.getStyleClass().add("readout");
-        stages.setHgap(8);
-        stages.setVgap(4);
         contributors.setHgap(8);
         contributors.setVgap(2);
         Label legend = new Label("Headroom: 20·log10(swing/RMS). P(clip): P(|v| > swing) for Gaussian noise of that RMS, "
@@ -80,6 +79,7 @@ final class BudgetPanel {
         box.getStyleClass().add("budget-panel");
         root.setFitToWidth(true);
         root.setPrefWidth(330);
+        root.setHbarPolicy(ScrollPane.ScrollBarPolicy.NEVER);
         root.setMinWidth(260);
         window.modelProperty().addListener((o, a, m) -> recompute());
         window.settingsProperty().addListener((o, a, s) -> recompute());
@@ -143,14 +143,13 @@ final class BudgetPanel {
         r.sourceToSelfDb().ifPresent(db -> sb.append(ToolText.f(" (source %.1f dB above)", db)));
         sb.append(ToolText.f(". Zero crossings %s /s (Rice).", ToolText.volts(r.zeroCrossingsPerS())));
         summary.setText(sb.toString());
-        int row = 0;
         for (BudgetResult.StageReading s : r.stages()) {
             String name = s.stage() + " " + s.node() + s.opamp().map(u -> " (" + u + ")").orElse("");
             Label n = new Label(name);
-            Label v = new Label(ToolText.volts(s.rmsV()) + " V");
+            Label v = new Label(ToolText.volts(s.rmsV()) + " V RMS");
             v.getStyleClass().add("stage-rms");
             ProgressBar bar = new ProgressBar(0);
-            bar.setPrefWidth(90);
+            bar.setMaxWidth(Double.MAX_VALUE);
             bar.getStyleClass().add("headroom-bar");
             Label clip = new Label();
             if (s.headroomDb().isPresent()) {
@@ -164,7 +163,10 @@ final class BudgetPanel {
                 clip.setText("no swingV given");
             }
             bar.setTooltip(new Tooltip(ToolText.f("swing %s V", s.swingV().map(String::valueOf).orElse("not given"))));
-            stages.addRow(row++, n, v, bar, clip);
+            HBox head = new HBox(8, n, v);
+            VBox one = new VBox(2, head, bar, clip);
+            one.getStyleClass().add("budget-stage");
+            stages.getChildren().add(one);
         }
         double total2 = r.outputRmsV() * r.outputRmsV();
         List<BudgetResult.Contributor> cs = r.contributors();
@@ -188,10 +190,11 @@ final class BudgetPanel {
     /** The text of each stage row (name, RMS, headroom and P(clip)), for tests. */
     List<String> stageTexts() {
         List<String> out = new java.util.ArrayList<>();
-        int cols = 4;
-        for (int i = 0; i + cols <= stages.getChildren().size(); i += cols) {
-            out.add(((Label) stages.getChildren().get(i)).getText() + " | " + ((Label) stages.getChildren().get(i + 1)).getText()
-                    + " | " + ((Label) stages.getChildren().get(i + 3)).getText());
+        for (Node n : stages.getChildren()) {
+            VBox one = (VBox) n;
+            HBox head = (HBox) one.getChildren().get(0);
+            out.add(((Label) head.getChildren().get(0)).getText() + " | " + ((Label) head.getChildren().get(1)).getText()
+                    + " | " + ((Label) one.getChildren().get(2)).getText());
         }
         return out;
     }

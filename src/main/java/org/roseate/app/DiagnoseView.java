@@ -150,6 +150,7 @@ final class DiagnoseView {
         });
         table.setPlaceholder(new Label("No diagnosis yet."));
         summary.setWrapText(true);
+        summary.setMinHeight(javafx.scene.layout.Region.USE_PREF_SIZE);
         summary.getStyleClass().add("summary");
         VBox top = new VBox(6, summary, table);
         VBox.setVgrow(table, Priority.ALWAYS);

@@ -110,6 +110,7 @@ final class FitView {
         left.getStyleClass().add("side-panel");
         status.setWrapText(true);
         summary.setWrapText(true);
+        summary.setMinHeight(javafx.scene.layout.Region.USE_PREF_SIZE);
         summary.getStyleClass().add("summary");
         table.getColumns().setAll(List.of(col("Part", Row::part, 70), col("Start", Row::start, 100),
                 col("Continuous", Row::continuous, 120), col("Standard", Row::standard, 100), col("Change", Row::change, 90)));

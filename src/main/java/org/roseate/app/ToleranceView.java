@@ -67,6 +67,17 @@ final class ToleranceView {
         this.window = window;
         this.slot = window.tasks().slot("tolerance");
         distribution.setValue(Distribution.UNIFORM);
+        distribution.setConverter(new javafx.util.StringConverter<>() {
+            @Override
+            public String toString(Distribution d) {
+                return d == null ? "" : d == Distribution.UNIFORM ? "uniform" : "Gaussian";
+            }
+
+            @Override
+            public Distribution fromString(String s) {
+                return Distribution.parse(s).orElse(Distribution.UNIFORM);
+            }
+        });
         p5.setName("5 %");
         p50.setName("median");
         p95.setName("95 %");
@@ -98,6 +109,7 @@ final class ToleranceView {
         left.setPrefWidth(340);
         left.getStyleClass().add("side-panel");
         summary.setWrapText(true);
+        summary.setMinHeight(javafx.scene.layout.Region.USE_PREF_SIZE);
         summary.getStyleClass().add("summary");
         table.getColumns().setAll(List.of(FitView.col("Part", Row::part, 70), FitView.col("Tolerance", Row::tolerance, 80),
                 FitView.col("Contribution (dB)", Row::contribution, 130), FitView.col("Shape dB/%", Row::shape, 100),
