@@ -17,6 +17,7 @@ import javafx.scene.control.ScrollPane;
 import javafx.scene.control.Tooltip;
 import javafx.scene.layout.GridPane;
 import javafx.scene.layout.HBox;
+import javafx.scene.layout.Region;
 import javafx.scene.layout.VBox;
 import org.roseate.budget.BudgetResult;
 import org.roseate.budget.NoiseBudget;
@@ -40,7 +41,7 @@ final class BudgetPanel {
     /** 20·log10(4): below this the 4σ peaks pass the swing. */
     static final double CAUTION_HEADROOM_DB = 12.04;
     /** How many contributors are listed. */
-    static final int CONTRIBUTORS_SHOWN = 8;
+    static final int CONTRIBUTORS_SHOWN = 5;
     /** Density points for the output density, as {@code budget} takes by default: 10 per decade. */
     static final int POINTS_PER_DECADE = 10;
 
@@ -53,9 +54,9 @@ final class BudgetPanel {
     private final AtomicLong generation = new AtomicLong();
     private final ObjectProperty<BudgetResult> result = new SimpleObjectProperty<>();
     private final Label summary = new Label("The budget appears once the design reads without error.");
-    private final VBox stages = new VBox(6);
+    private final HBox stages = new HBox(14);
     private final GridPane contributors = new GridPane();
-    private final VBox box = new VBox(8);
+    private final HBox box = new HBox(18);
     private final ScrollPane root = new ScrollPane(box);
 
     BudgetPanel(MainWindow window) {
@@ -70,17 +71,25 @@ final class BudgetPanel {
         summary.getStyleClass().add("readout");
         contributors.setHgap(8);
         contributors.setVgap(2);
-        Label legend = new Label("Headroom: 20·log10(swing/RMS). P(clip): P(|v| > swing) for Gaussian noise of that RMS, "
-                + "erfc(swing/(√2·RMS)). Give each op-amp its swing (swingV) in the design for these.");
+        Label legend = new Label("Headroom: 20·log10(swing/RMS). P(clip): erfc(swing/(√2·RMS)), the chance Gaussian noise of "
+                + "that RMS passes the swing (give each op-amp its swingV).");
         legend.setWrapText(true);
         legend.getStyleClass().add("readout");
-        box.getChildren().setAll(title, summary, stagesTitle, stages, contribTitle, contributors, legend);
-        box.setPadding(new Insets(8));
+        Tooltip.install(title, new Tooltip(legend.getText()));
+        Tooltip.install(stagesTitle, new Tooltip(legend.getText()));
+        summary.setMinHeight(Region.USE_PREF_SIZE);
+        VBox about = new VBox(4, title, summary);
+        about.setPrefWidth(330);
+        about.setMinWidth(280);
+        VBox stagesBox = new VBox(4, stagesTitle, stages);
+        VBox contribBox = new VBox(4, contribTitle, contributors);
+        contribBox.setMinWidth(250);
+        box.getChildren().setAll(about, stagesBox, contribBox);
+        box.setPadding(new Insets(6, 8, 6, 8));
         box.getStyleClass().add("budget-panel");
-        root.setFitToWidth(true);
-        root.setPrefWidth(330);
-        root.setHbarPolicy(ScrollPane.ScrollBarPolicy.NEVER);
-        root.setMinWidth(260);
+        root.setFitToHeight(true);
+        root.setPrefHeight(150);
+        root.setMinHeight(0);
         window.modelProperty().addListener((o, a, m) -> recompute());
         window.settingsProperty().addListener((o, a, s) -> recompute());
         recompute();
@@ -165,6 +174,8 @@ final class BudgetPanel {
             bar.setTooltip(new Tooltip(ToolText.f("swing %s V", s.swingV().map(String::valueOf).orElse("not given"))));
             HBox head = new HBox(8, n, v);
             VBox one = new VBox(2, head, bar, clip);
+            one.setPrefWidth(190);
+            one.setMinWidth(170);
             one.getStyleClass().add("budget-stage");
             stages.getChildren().add(one);
         }

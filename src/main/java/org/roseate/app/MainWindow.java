@@ -66,7 +66,8 @@ final class MainWindow {
         tools = new ToolsView(this, measure::file);
         budget = new BudgetPanel(this);
         javafx.scene.control.SplitPane designWithBudget = new javafx.scene.control.SplitPane(design.root(), budget.root());
-        designWithBudget.setDividerPositions(0.72);
+        designWithBudget.setOrientation(javafx.geometry.Orientation.VERTICAL);
+        designWithBudget.setDividerPositions(0.8);
         tabs.getTabs().setAll(List.of(tab("Design", designWithBudget), tab("Listen", listen.root()),
                 tab("Measure", measure.root()), tab("Compare", compare.root()), tab("Tools", tools.root())));
         tabs.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
