@@ -90,4 +90,15 @@ final class FxPrompts implements Prompts {
         a.setHeaderText(null);
         a.showAndWait();
     }
+
+    @Override
+    public boolean confirmReplace(Window owner, Path file) {
+        ButtonType replace = new ButtonType("Replace", ButtonBar.ButtonData.YES);
+        Alert a = new Alert(Alert.AlertType.CONFIRMATION, "", replace, ButtonType.CANCEL);
+        a.initOwner(owner);
+        a.setTitle("Replace the file?");
+        a.setHeaderText(file.getFileName() + " already exists.");
+        a.setContentText("Replace " + file + "? Its current content will be lost.");
+        return a.showAndWait().orElse(ButtonType.CANCEL) == replace;
+    }
 }

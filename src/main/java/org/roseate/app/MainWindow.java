@@ -45,6 +45,9 @@ final class MainWindow {
     private ListenView listen;
     private MeasureView measure;
     private CompareView compare;
+    private ToolsView tools;
+    private BudgetPanel budget;
+    private MenuBarBuilder menus;
     private boolean cautionAccepted;
 
     MainWindow(Prompts prompts, Path workingDir) {
@@ -60,8 +63,13 @@ final class MainWindow {
         listen = new ListenView(this);
         measure = new MeasureView(this);
         compare = new CompareView(this);
-        tabs.getTabs().setAll(List.of(tab("Design", design.root()), tab("Listen", listen.root()),
-                tab("Measure", measure.root()), tab("Compare", compare.root())));
+        tools = new ToolsView(this, measure::file);
+        budget = new BudgetPanel(this);
+        javafx.scene.control.SplitPane designWithBudget = new javafx.scene.control.SplitPane(design.root(), budget.root());
+        designWithBudget.setOrientation(javafx.geometry.Orientation.VERTICAL);
+        designWithBudget.setDividerPositions(0.8);
+        tabs.getTabs().setAll(List.of(tab("Design", designWithBudget), tab("Listen", listen.root()),
+                tab("Measure", measure.root()), tab("Compare", compare.root()), tab("Tools", tools.root())));
         tabs.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
         tabs.getStyleClass().add("views");
 
@@ -82,7 +90,9 @@ final class MainWindow {
         status.getStyleClass().add("status-bar");
         status.setPadding(new Insets(4, 10, 4, 10));
 
-        root.setTop(header);
+        ChartExport chartExport = new ChartExport(this);
+        menus = new MenuBarBuilder(this, RecentFiles.forUser(), chartExport);
+        root.setTop(new javafx.scene.layout.VBox(menus.build(), header));
         root.setCenter(tabs);
         root.setBottom(status);
         root.getStyleClass().add("roseate");
@@ -92,7 +102,13 @@ final class MainWindow {
         if (css != null) {
             scene.getStylesheets().add(css.toExternalForm());
         }
+        var toolsCss = MainWindow.class.getResource("roseate-tools.css");
+        if (toolsCss != null) {
+            scene.getStylesheets().add(toolsCss.toExternalForm());
+        }
         installShortcuts(scene);
+        menus.installAccelerators(scene);
+        chartExport.install(scene);
         s.setScene(scene);
         s.setMinWidth(900);
         s.setMinHeight(600);
@@ -155,6 +171,8 @@ final class MainWindow {
         listen.stop();
         measure.stop();
         design.shutdown();
+        tools.shutdown();
+        budget.shutdown();
         tasks.shutdown();
         return true;
     }
@@ -243,5 +261,17 @@ final class MainWindow {
 
     CompareView compare() {
         return compare;
+    }
+
+    ToolsView tools() {
+        return tools;
+    }
+
+    BudgetPanel budget() {
+        return budget;
+    }
+
+    MenuBarBuilder menus() {
+        return menus;
     }
 }

@@ -246,6 +246,11 @@ final class MeasureView {
                 .ifPresent(this::setFile);
     }
 
+    /** The WAV file chosen for measuring, or null (for the Diagnose tool). */
+    Path file() {
+        return file;
+    }
+
     /** Sets the WAV file to measure (and selects the file source). */
     void setFile(Path p) {
         file = p;

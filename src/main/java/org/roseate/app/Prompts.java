@@ -28,4 +28,12 @@ interface Prompts {
     boolean acceptCaution(Window owner, String caution);
 
     void error(Window owner, String message);
+
+    /**
+     * Asks before an existing file is replaced; true to replace it. By default the answer is no, so a
+     * file is never replaced without a question.
+     */
+    default boolean confirmReplace(Window owner, Path file) {
+        return false;
+    }
 }

@@ -18,9 +18,7 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DesignReader;
-import org.roseate.bands.BandFraction;
-import org.roseate.bands.BandTable;
-import org.roseate.compare.FrequencyRange;
+import org.roseate.diagnose.CaptureDiagnosis;
 import org.roseate.diagnose.CaptureGrid;
 import org.roseate.diagnose.Diagnoser;
 import org.roseate.diagnose.Diagnosis;
@@ -31,17 +29,12 @@ import org.roseate.diagnose.MissingToleranceException;
 import org.roseate.diagnose.PartEstimate;
 import org.roseate.diagnose.PartPrior;
 import org.roseate.diagnose.SensitivityBand;
-import org.roseate.io.WavFormat;
 import org.roseate.io.WavFormatException;
 import org.roseate.io.WavReader;
-import org.roseate.measure.FileMeasure;
-import org.roseate.measure.MeasureException;
 import org.roseate.measure.MeasureRequest;
-import org.roseate.measure.MeasureResult;
 import org.roseate.plot.FrequencyChart;
 import org.roseate.spectrum.Calibration;
 import org.roseate.spectrum.CalibrationException;
-import org.roseate.spectrum.WelchSettings;
 import org.roseate.sweep.SweepResult;
 import org.roseate.value.ComponentKind;
 import org.roseate.value.EngineeringValue;
@@ -65,9 +58,6 @@ final class DiagnoseCommand implements Callable<Integer> {
             + " %% chance of a wrong part); transfer captures fit magnitude and phase, each weighted by its own "
             + "uncertainty; Levenberg–Marquardt. Interval: central %s from the posterior covariance. "
             + "P(outside): posterior probability that the part lies outside its tolerance; flagged at %s and above.";
-    /** At least this many segments for an automatic segment length, so scatter estimates are stable. */
-    private static final int MIN_SEGMENTS = 16;
-    private static final int MIN_SEGMENT = 256;
 
     enum Format { table, json, csv }
 
@@ -198,57 +188,20 @@ final class DiagnoseCommand implements Callable<Integer> {
                 throw new UserInputException(e.getMessage());
             }
         }
-        WavFormat f;
-        long frames;
-        try (WavReader reader = open()) {
-            f = reader.format();
-            frames = reader.frames();
-        } catch (WavFormatException e) {
+        CaptureDiagnosis.Outcome o;
+        try {
+            o = CaptureDiagnosis.run(new CaptureDiagnosis.Request(parts.design(), parts.source(), file,
+                    referenceChannel, channel, tolerances(), cal, segment));
+        } catch (DiagnosisException e) {
             throw new UserInputException(e.getMessage());
-        } catch (IOException e) {
-            throw new UserInputException(name() + ": cannot read (" + e.getMessage() + ")");
         }
-        int[] ch = channels(f);
-        checkRate(f.sampleRateHz(), parts.bands());
-        int n = segmentLength(f.sampleRateHz(), frames, parts.bands());
-        MeasureResult res = measure(f.sampleRateHz(), n, ch, cal);
         PrintWriter err = spec.commandLine().getErr();
         // Only the warnings about the samples themselves: the core's band table is not shown here.
-        res.warnings().stream().filter(w -> w.contains("clipped")).forEach(w -> err.println("roseate: " + w));
+        o.warnings().forEach(w -> err.println("roseate: " + w));
         err.flush();
-        String what = ch.length == 2
-                ? Numbers.f("transfer from channel %d (reference) to channel %d%s, %d averages", ch[0] + 1, ch[1] + 1,
-                        cal != null ? ", calibrated" : "", res.averages())
-                : Numbers.f("noise source on channel %d, level unknown%s, %d averages", ch[0] + 1,
-                        cal != null ? ", calibrated" : "", res.averages());
-        MeasuredResponse measured = MeasuredResponse.of(res, what);
-        return report(parts, measured, Numbers.f("segment %d (%.4g Hz bins)", n, (double) f.sampleRateHz() / n),
-                CaptureGrid.band(f.sampleRateHz(), n), n);
-    }
-
-    /**
-     * The capture read through the measurement core, as {@code measure} reads it: one request with
-     * the analysis points as response points, so integrity checks, calibration and every ± come from
-     * the same pipeline.
-     */
-    private MeasureResult measure(double rateHz, int n, int[] ch, Calibration cal) {
-        double[] band = CaptureGrid.band(rateHz, n);
-        // The core always reads a band table too; diagnose shows none, so any octave table it can
-        // resolve will do: from 16 low-end bins (8 or more bins per octave band) up.
-        double tableLo = Math.min(band[0] * 16, band[1] / 2);
-        try {
-            BandTable table = BandTable.of(BandFraction.OCTAVE, tableLo, band[1]);
-            FrequencyRange range = new FrequencyRange(band[0], band[1]);
-            MeasureRequest q = ch.length == 2
-                    ? MeasureRequest.transfer(table, range, null, ch[0], ch[1])
-                    : MeasureRequest.noiseSource(table, range, null).withResponseChannel(ch[0]);
-            q = q.withCalibration(cal).withSegmentLength(n).withResponseHz(CaptureGrid.points(rateHz, n));
-            return FileMeasure.run(file, q);
-        } catch (MeasureException e) {
-            throw new UserInputException(e.getMessage());
-        } catch (IllegalArgumentException e) {
-            throw new UserInputException(name() + ": " + e.getMessage());
-        }
+        int n = o.segmentLength();
+        return print(parts, o.measured(), o.diagnosis(), Numbers.f("segment %d (%.4g Hz bins)", n,
+                o.measured().sampleRateHz() / n), o.bandHz(), n);
     }
 
     /** {@code --sweep}: a swept-sine transfer capture, from a file or live, read as {@code measure --sweep} reads it. */
@@ -293,7 +246,11 @@ final class DiagnoseCommand implements Callable<Integer> {
         } else {
             throw new UserInputException(file + ": has " + channels + " channels; name the response with --channel");
         }
-        checkRate(rate, parts.bands());
+        try {
+            CaptureDiagnosis.checkRate(file == null ? "live recording" : file.toString(), rate, parts.bands());
+        } catch (DiagnosisException e) {
+            throw new UserInputException(e.getMessage());
+        }
         PrintWriter err = spec.commandLine().getErr();
         SweepResult r = SweepMeasurement.measure(file, sweep, live, resp, ref, outputDevice, device, rateHz, levelDbfs,
                 allowLoud, err);
@@ -322,15 +279,21 @@ final class DiagnoseCommand implements Callable<Integer> {
         return file == null ? "live recording" : name();
     }
 
-    /** Diagnoses and prints in the chosen form. */
+    /** Diagnoses a swept-sine response and prints in the chosen form. */
     private Integer report(Parts parts, MeasuredResponse measured, String resolution, double[] band, int n) {
-        checkTrusted(measured);
         Diagnosis dx;
         try {
+            CaptureDiagnosis.checkTrusted(sweepName(), measured, true);
             dx = Diagnoser.diagnose(parts.design(), parts.source(), parts.priors(), measured, Diagnoser.DEFAULT_CONFIDENCE);
         } catch (DiagnosisException e) {
-            throw new UserInputException(sweepName() + ": " + e.getMessage());
+            throw new UserInputException(e.getMessage().startsWith(sweepName()) ? e.getMessage()
+                    : sweepName() + ": " + e.getMessage());
         }
+        return print(parts, measured, dx, resolution, band, n);
+    }
+
+    /** Prints a diagnosis in the chosen form, and draws it when --plot asks. */
+    private Integer print(Parts parts, MeasuredResponse measured, Diagnosis dx, String resolution, double[] band, int n) {
         if (plot != null) {
             CompareCommand.writePlot(chart(dx), plot, force);
         }
@@ -383,101 +346,12 @@ final class DiagnoseCommand implements Callable<Integer> {
         }
     }
 
-    /** {reference, response} for a transfer capture, {channel} for a noise-source capture; zero-based. */
-    private int[] channels(WavFormat f) {
-        if (referenceChannel == null) {
-            if (channel == null && f.channels() > 1) {
-                throw new UserInputException(file + ": has " + f.channels() + " channels; name the reference with "
-                        + "--reference-channel N (transfer capture) or the channel with --channel N (noise-source capture)");
-            }
-            return new int[] {index(channel == null ? 1 : channel, "--channel", f.channels())};
-        }
-        if (f.channels() < 2) {
-            throw new UserInputException(file + ": --reference-channel needs two channels; the file has 1");
-        }
-        int ref = index(referenceChannel, "--reference-channel", f.channels());
-        int resp;
-        if (channel != null) {
-            resp = index(channel, "--channel", f.channels());
-        } else if (f.channels() == 2) {
-            resp = 1 - ref;
-        } else {
-            throw new UserInputException(file + ": has " + f.channels() + " channels; name the response with --channel");
-        }
-        if (resp == ref) {
-            throw new UserInputException("--channel and --reference-channel are both " + (ref + 1) + "; they must differ");
-        }
-        return new int[] {ref, resp};
-    }
-
     private int index(int oneBased, String option, int channels) {
         if (oneBased < 1 || oneBased > channels) {
             throw new UserInputException(file + ": " + option + " " + oneBased + " is out of range; the file has "
                     + channels + (channels == 1 ? " channel" : " channels"));
         }
         return oneBased - 1;
-    }
-
-    /** Refuses a rate whose analysed band ends below where some part shapes the response. */
-    private void checkRate(double rateHz, List<SensitivityBand> bands) {
-        double hi = CaptureGrid.band(rateHz, WelchSettings.MAX_SEGMENT_LENGTH)[1];
-        SensitivityBand worst = null;
-        for (SensitivityBand b : bands) {
-            if (b.fromHz() > hi && (worst == null || b.fromHz() > worst.fromHz())) {
-                worst = b;
-            }
-        }
-        if (worst != null) {
-            throw new UserInputException(Numbers.f("%s: at %s the analysed band ends at %s, below %s, where %s starts "
-                    + "to shape the response; capture at %.0f Hz or faster", file, Numbers.hz(rateHz), Numbers.hz(hi),
-                    Numbers.hz(worst.fromHz()), worst.designator(),
-                    Math.ceil(worst.fromHz() / CaptureGrid.HIGH_FRACTION_OF_RATE)));
-        }
-    }
-
-    /**
-     * The FFT length: --segment, or the smallest power of two whose analysed band starts at or
-     * below half the lowest frequency at which every part still shows, within the capture's length.
-     */
-    private int segmentLength(double rateHz, long frames, List<SensitivityBand> bands) {
-        double needLo = bands.stream().mapToDouble(SensitivityBand::toHz).min().orElse(20);
-        if (segment != null) {
-            if (segment < MIN_SEGMENT || segment > WelchSettings.MAX_SEGMENT_LENGTH || segment % 2 != 0) {
-                throw new UserInputException("--segment: expected an even number of samples from " + MIN_SEGMENT
-                        + " to " + WelchSettings.MAX_SEGMENT_LENGTH + ", found " + segment);
-            }
-            if (frames < segment) {
-                throw new UserInputException(Numbers.f("%s: the capture (%d frames) is shorter than one segment of %d",
-                        file, frames, segment));
-            }
-            return segment;
-        }
-        int wanted = MIN_SEGMENT;
-        while (wanted < WelchSettings.MAX_SEGMENT_LENGTH
-                && CaptureGrid.LOW_BINS * rateHz / wanted > needLo / 2) {
-            wanted *= 2;
-        }
-        int n = wanted;
-        while (n > MIN_SEGMENT && (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
-            n /= 2;
-        }
-        if (CaptureGrid.LOW_BINS * rateHz / n > needLo || (long) n * (MIN_SEGMENTS + 1) / 2 > frames) {
-            SensitivityBand b = bands.stream().min((x, y) -> Double.compare(x.toHz(), y.toHz())).orElseThrow();
-            throw new UserInputException(Numbers.f("%s: %.2f s is too short to see %s, which shapes the response below %s; "
-                    + "record at least %.0f s", file, frames / rateHz, b.designator(), Numbers.hz(b.toHz()),
-                    Math.ceil((double) wanted * (MIN_SEGMENTS + 1) / 2 / rateHz)));
-        }
-        return n;
-    }
-
-    /** Refuses a capture that has too few trusted points to say anything. */
-    private void checkTrusted(MeasuredResponse m) {
-        if (m.trustedCount() < Diagnoser.MIN_TRUSTED_POINTS) {
-            throw new UserInputException(Numbers.f("%s: %s at %d of %d points, too low to say anything about the "
-                    + "parts; check the wiring, the channels and the test level", sweepName(), sweep.enabled()
-                    ? "the sweep's noise is above half the signal" : Numbers.f("coherence is below %.2f",
-                            MeasureRequest.DEFAULT_COHERENCE_THRESHOLD), m.size() - m.trustedCount(), m.size()));
-        }
     }
 
     private static ComponentKind kind(Design d, String designator) {

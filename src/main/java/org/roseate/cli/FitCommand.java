@@ -24,6 +24,7 @@ import org.roseate.compare.FrequencyRange;
 import org.roseate.compare.TargetSlope;
 import org.roseate.io.AtomicOutput;
 import org.roseate.model.CircuitModel;
+import org.roseate.tools.FitPlan;
 import org.roseate.tools.FitResult;
 import org.roseate.tools.GainHold;
 import org.roseate.tools.ToleranceOverrides;
@@ -196,8 +197,7 @@ final class FitCommand implements Callable<Integer> {
             if (!freeInput) {
                 held.addAll(Topologies.inputParts(start));
             }
-            double own = 20 * Math.log10(CircuitModel.of(start, start.name()).response(1000).abs());
-            gain = Optional.of(new GainHold(Math.max(-200, Math.min(200, own)), 1000));
+            gain = FitPlan.ownGain(start);
         } else if (divider) {
             start = Topologies.dividerLadder(branches, optionalOhms(load, "--load"), lim, r);
             if (start.stages().get(0).networks().containsKey("load")) {
@@ -231,19 +231,10 @@ final class FitCommand implements Callable<Integer> {
             }
             held.add(d);
         }
-        List<String> inductors = new ArrayList<>();
-        List<String> free = new ArrayList<>();
-        for (Component c : start.components()) {
-            if (held.contains(c.designator())) {
-                continue;
-            }
-            if (c.kind() == ComponentKind.INDUCTOR) {
-                inductors.add(c.designator());
-                held.add(c.designator());
-            } else {
-                free.add(c.designator());
-            }
-        }
+        FitPlan plan = FitPlan.of(start, held);
+        held.addAll(plan.inductors());
+        List<String> inductors = plan.inductors();
+        List<String> free = plan.free();
         if (free.isEmpty()) {
             throw new UserInputException("--hold: every part is held; there is nothing left to fit");
         }

@@ -18,6 +18,11 @@ public final class HeadlessFx implements BeforeAllCallback {
     static synchronized void activate() {
         // Building the window takes a few seconds on a loaded CI machine (2 cores shared with other
         // builds); TestFX's own default wait for the start method is shorter than that can take.
+        // The window keeps its recent-files list in the user's configuration folder; tests keep theirs
+        // under target/ so no test run writes into the developer's home.
+        if (System.getProperty("roseate.configDir") == null) {
+            System.setProperty("roseate.configDir", "target/test-config");
+        }
         if (System.getProperty("testfx.setup.timeout") == null) {
             System.setProperty("testfx.setup.timeout", "120000");
         }

@@ -17,6 +17,8 @@ final class ScriptedPrompts implements Prompts {
     int cautionAsked;
     int restoreAsked;
     final List<String> errors = new ArrayList<>();
+    boolean replace;
+    int replaceAsked;
 
     @Override
     public Optional<Path> openFile(Window owner, String title, String description, String... extensions) {
@@ -48,5 +50,11 @@ final class ScriptedPrompts implements Prompts {
     @Override
     public void error(Window owner, String message) {
         errors.add(message);
+    }
+
+    @Override
+    public boolean confirmReplace(Window owner, Path file) {
+        replaceAsked++;
+        return replace;
     }
 }
