@@ -89,8 +89,9 @@ final class BandChart extends BarChart<String, Number> {
             }
             double v = d.getYValue().doubleValue();
             if (whiskersDb != null && i < whiskersDb.length && Double.isFinite(whiskersDb[i])) {
-                double top = y.getDisplayPosition(v + whiskersDb[i]);
-                double bottom = y.getDisplayPosition(v - whiskersDb[i]);
+                // ends kept inside the axis, so a wide ± never makes a line far outside the plot
+                double top = y.getDisplayPosition(clamp(v + whiskersDb[i], y));
+                double bottom = y.getDisplayPosition(clamp(v - whiskersDb[i], y));
                 add(new Line(cx, top, cx, bottom), "whisker");
                 add(new Line(cx - half / 2, top, cx + half / 2, top), "whisker");
                 add(new Line(cx - half / 2, bottom, cx + half / 2, bottom), "whisker");
@@ -100,6 +101,10 @@ final class BandChart extends BarChart<String, Number> {
                 add(new Line(cx - half, my, cx + half, my), "design-marker");
             }
         }
+    }
+
+    private static double clamp(double db, NumberAxis y) {
+        return Math.max(y.getLowerBound(), Math.min(y.getUpperBound(), db));
     }
 
     private void add(Line l, String styleClass) {

@@ -45,6 +45,7 @@ final class MainWindow {
     private ListenView listen;
     private MeasureView measure;
     private CompareView compare;
+    private BenchView bench;
     private boolean cautionAccepted;
 
     MainWindow(Prompts prompts, Path workingDir) {
@@ -60,8 +61,9 @@ final class MainWindow {
         listen = new ListenView(this);
         measure = new MeasureView(this);
         compare = new CompareView(this);
+        bench = new BenchView(this);
         tabs.getTabs().setAll(List.of(tab("Design", design.root()), tab("Listen", listen.root()),
-                tab("Measure", measure.root()), tab("Compare", compare.root())));
+                tab("Measure", measure.root()), tab("Compare", compare.root()), tab("Bench", bench.root())));
         tabs.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
         tabs.getStyleClass().add("views");
 
@@ -114,7 +116,7 @@ final class MainWindow {
     }
 
     private void installShortcuts(Scene scene) {
-        for (int i = 0; i < 4; i++) {
+        for (int i = 0; i < tabs.getTabs().size() && i < 9; i++) {
             int index = i;
             scene.getAccelerators().put(new KeyCodeCombination(KeyCode.getKeyCode(String.valueOf(i + 1)),
                     KeyCombination.SHORTCUT_DOWN), () -> tabs.getSelectionModel().select(index));
@@ -154,6 +156,7 @@ final class MainWindow {
         }
         listen.stop();
         measure.stop();
+        bench.stop();
         design.shutdown();
         tasks.shutdown();
         return true;
@@ -243,5 +246,9 @@ final class MainWindow {
 
     CompareView compare() {
         return compare;
+    }
+
+    BenchView bench() {
+        return bench;
     }
 }

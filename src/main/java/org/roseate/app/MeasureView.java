@@ -447,7 +447,7 @@ final class MeasureView {
                 + "");
         bands.show(t.bands().stream().map(l -> l.band().label()).toList(),
                 t.bands().stream().mapToDouble(BandResult::deviationDb).toArray(),
-                null, designMarks());
+                t.bands().stream().mapToDouble(b -> b.trusted() ? b.uncertaintyDb() : Double.NaN).toArray(), designMarks());
         List<ResponsePoint> pts = t.points();
         int ref = 0;
         for (int i = 0; i < pts.size(); i++) {
