@@ -213,11 +213,7 @@ final class BenchView {
         capture.getStyleClass().add("primary");
         capture.setOnAction(e -> toggleCapture());
         reset.setOnAction(e -> restartAnalysis("reset"));
-        hold.selectedProperty().addListener((o, a, held) -> {
-            if (!held) {
-                shown = null; // draw the newest reading at once
-            }
-        });
+        // while held, newer readings are not drawn; on release the next frame draws the newest
         keep.setOnAction(e -> keepReading());
         removeKept.setOnAction(e -> {
             KeptTrace t = kept.getSelectionModel().getSelectedItem();

@@ -44,7 +44,10 @@ final class ReadingsChart extends Region {
     /** Plot-area insets, px. */
     static final double LEFT = 58;
     static final double RIGHT = 14;
-    static final double TOP = 30;
+    static final double TOP = 44;
+    /** Baselines of the title row and the legend row, px. */
+    static final double TITLE_Y = 11;
+    static final double LEGEND_Y = 30;
     static final double BOTTOM = 38;
     /** Zoom factor per wheel notch (40 px of scroll). */
     static final double ZOOM_PER_NOTCH = 1.25;
@@ -465,7 +468,7 @@ final class ReadingsChart extends Region {
         g.setTextAlign(TextAlignment.LEFT);
         g.setTextBaseline(VPos.CENTER);
         g.setFont(Font.font(null, javafx.scene.text.FontWeight.BOLD, 12));
-        g.fillText(title, LEFT, TOP / 2);
+        g.fillText(title, LEFT, TITLE_Y);
         g.setFont(Font.font(11));
         drawGridAndAxes(g);
 
@@ -504,6 +507,7 @@ final class ReadingsChart extends Region {
         }
         g.setTextAlign(TextAlignment.CENTER);
         g.setTextBaseline(VPos.TOP);
+        double lastLabelEnd = Double.NEGATIVE_INFINITY;
         for (int decade = (int) Math.floor(xLo) - 1; decade <= (int) Math.ceil(xHi); decade++) {
             for (double m : new double[] {1, 2, 5}) {
                 double lx = decade + Math.log10(m);
@@ -513,8 +517,13 @@ final class ReadingsChart extends Region {
                 double x = Math.round(px(lx)) + 0.5;
                 g.setStroke(GRID);
                 g.strokeLine(x, TOP, x, TOP + plotHeight());
-                g.setFill(AXIS);
-                g.fillText(hzLabel(Math.pow(10, lx)), x, TOP + plotHeight() + 4);
+                String label = hzLabel(Math.pow(10, lx));
+                double half = textWidth(label) / 2;
+                if (x - half > lastLabelEnd + 4) { // a label that would touch the previous one is left out
+                    g.setFill(AXIS);
+                    g.fillText(label, x, TOP + plotHeight() + 4);
+                    lastLabelEnd = x + half;
+                }
             }
         }
         g.setStroke(AXIS);
@@ -610,22 +619,31 @@ final class ReadingsChart extends Region {
         for (Trace t : references) {
             items.add(new Object[] {t.name(), t.color(), t.dashed()});
         }
-        double x = LEFT + plotWidth() - 8;
-        g.setTextAlign(TextAlignment.RIGHT);
+        // entries are 16 px of line, 6 px, the name, 12 px; the last ones are dropped when they do not fit
+        double room = plotWidth() - 8;
+        double total = 0;
+        int fit = 0;
+        for (Object[] item : items) {
+            double wi = 34 + textWidth((String) item[0]);
+            if (total + wi > room) {
+                break;
+            }
+            total += wi;
+            fit++;
+        }
+        double x = LEFT + plotWidth() - 8 - total;
+        g.setTextAlign(TextAlignment.LEFT);
         g.setTextBaseline(VPos.CENTER);
-        for (int i = items.size() - 1; i >= 0; i--) {
+        for (int i = 0; i < fit; i++) {
             String name = (String) items.get(i)[0];
-            Color c = (Color) items.get(i)[1];
-            g.setFill(INK);
-            g.fillText(name, x, TOP / 2);
-            double tw = textWidth(name);
-            x -= tw + 6;
-            g.setStroke(c);
+            g.setStroke((Color) items.get(i)[1]);
             g.setLineWidth(3);
             g.setLineDashes((Boolean) items.get(i)[2] ? new double[] {4, 3} : null);
-            g.strokeLine(x - 16, TOP / 2, x, TOP / 2);
+            g.strokeLine(x, LEGEND_Y, x + 16, LEGEND_Y);
             g.setLineDashes(null);
-            x -= 28;
+            g.setFill(INK);
+            g.fillText(name, x + 22, LEGEND_Y);
+            x += 34 + textWidth(name);
         }
         String r = readout.get();
         if (!r.isEmpty()) {

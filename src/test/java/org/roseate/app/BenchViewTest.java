@@ -93,7 +93,7 @@ class BenchViewTest {
         // the frequency axis spans the third-octave bands' edges, 20 Hz to 20 kHz nominal (IEC 61260-1
         // base-ten: edges at the midband frequency times 10^(∓1/20): 17.8 Hz and 22.4 kHz)
         double[] x = RoseateWindowTest.fx(() -> bench().minusDesignChart().xBoundsHz());
-        assertEquals(1000 * Math.pow(10, -30 / 10.0) * Math.pow(10, -1 / 20.0), x[0], 0.01);
+        assertEquals(1000 * Math.pow(10, -17 / 10.0) * Math.pow(10, -1 / 20.0), x[0], 0.01);
         assertEquals(1000 * Math.pow(10, 13 / 10.0) * Math.pow(10, 1 / 20.0), x[1], 1);
         // levels: the ideal pink line (equal power in every fractional-octave band, so 0 dB re 1 kHz)
         // and the design's line; the axis holds both, at least 6 dB wide, and no 0–110 dB placeholder
@@ -172,18 +172,18 @@ class BenchViewTest {
     @Test
     void thePointerReadsOutTheBandUnderIt() throws Exception {
         MeasureResult r = readDesignNoise(WelchSettings.Averaging.LINEAR);
-        int k = 15; // the 1 kHz band of 20 Hz … 20 kHz third-octaves
+        int k = 17; // the 1 kHz band of 20 Hz … 20 kHz third-octaves
         BandResult b = r.bands().get(k);
         assertEquals("1k", b.band().label());
         ReadingsChart chart = RoseateWindowTest.fx(() -> bench().levelsChart());
         double cx = RoseateWindowTest.fx(() -> chart.bandCentreX(k));
-        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), mouse(MouseEvent.MOUSE_MOVED, cx, 100, 0)));
+        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), mouse(chart.canvas(), MouseEvent.MOUSE_MOVED, cx, 100, 0)));
         String expected = String.format(Locale.ROOT, "1k Hz band: Line in %+.2f ± %.2f dB · Ideal pink %+.2f dB · Design %+.2f dB",
                 b.normalizedDb(), b.uncertaintyDb(), b.normalizedDb() - b.deviationDb(),
                 b.normalizedDb() - b.designDifferenceDb());
         assertEquals(expected, RoseateWindowTest.fx(() -> chart.readoutProperty().get()));
         assertEquals(expected, RoseateWindowTest.fx(() -> bench().pointerReadout().getText()));
-        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), mouse(MouseEvent.MOUSE_EXITED, -1, -1, 0)));
+        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), mouse(chart.canvas(), MouseEvent.MOUSE_EXITED, -1, -1, 0)));
         assertEquals("", RoseateWindowTest.fx(() -> chart.readoutProperty().get()));
     }
 
@@ -193,17 +193,18 @@ class BenchViewTest {
         ReadingsChart chart = RoseateWindowTest.fx(() -> bench().levelsChart());
         double[] x0 = RoseateWindowTest.fx(chart::xBoundsHz);
         double[] y0 = RoseateWindowTest.fx(chart::yBoundsDb);
-        double cx = RoseateWindowTest.fx(() -> chart.bandCentreX(15));
+        double cx = RoseateWindowTest.fx(() -> chart.bandCentreX(17));
         double cy = RoseateWindowTest.fx(() -> chart.canvas().getHeight() / 2);
         // one notch in (40 px of wheel): both spans shrink by 1.25, about the pointer
-        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), scroll(cx, cy, 40, false, false)));
+        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), scroll(chart.canvas(), cx, cy, 40, false, false)));
         double[] x1 = RoseateWindowTest.fx(chart::xBoundsHz);
         double[] y1 = RoseateWindowTest.fx(chart::yBoundsDb);
         assertEquals(Math.log10(x0[1] / x0[0]) / 1.25, Math.log10(x1[1] / x1[0]), 1e-9);
         assertEquals((y0[1] - y0[0]) / 1.25, y1[1] - y1[0], 1e-9);
-        assertEquals(cx, RoseateWindowTest.fx(() -> chart.bandCentreX(15)), 1e-6, "the band under the pointer stays put");
+        // 0.01 px: the event's point goes to scene coordinates and back, which costs ~1e-6 px of rounding
+        assertEquals(cx, RoseateWindowTest.fx(() -> chart.bandCentreX(17)), 0.01, "the band under the pointer stays put");
         // Shift: frequency only
-        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), scroll(cx, cy, 40, true, false)));
+        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), scroll(chart.canvas(), cx, cy, 40, true, false)));
         assertEquals(y1[1] - y1[0], RoseateWindowTest.fx(chart::yBoundsDb)[1] - RoseateWindowTest.fx(chart::yBoundsDb)[0], 1e-9);
         double[] x2 = RoseateWindowTest.fx(chart::xBoundsHz);
         double[] y2 = RoseateWindowTest.fx(chart::yBoundsDb);
@@ -211,15 +212,16 @@ class BenchViewTest {
         double plotW = RoseateWindowTest.fx(() -> chart.canvas().getWidth() - ReadingsChart.LEFT - ReadingsChart.RIGHT);
         double plotH = RoseateWindowTest.fx(() -> chart.canvas().getHeight() - ReadingsChart.TOP - ReadingsChart.BOTTOM);
         RoseateWindowTest.fxRun(() -> {
-            Event.fireEvent(chart.canvas(), mouse(MouseEvent.MOUSE_PRESSED, 200, 100, 1));
-            Event.fireEvent(chart.canvas(), mouse(MouseEvent.MOUSE_DRAGGED, 250, 130, 1));
+            Event.fireEvent(chart.canvas(), mouse(chart.canvas(), MouseEvent.MOUSE_PRESSED, 200, 100, 1));
+            Event.fireEvent(chart.canvas(), mouse(chart.canvas(), MouseEvent.MOUSE_DRAGGED, 250, 130, 1));
         });
         double[] x3 = RoseateWindowTest.fx(chart::xBoundsHz);
         double[] y3 = RoseateWindowTest.fx(chart::yBoundsDb);
-        assertEquals(-50 * Math.log10(x2[1] / x2[0]) / plotW, Math.log10(x3[0] / x2[0]), 1e-9);
-        assertEquals(30 * (y2[1] - y2[0]) / plotH, y3[0] - y2[0], 1e-9);
+        // 1e-6: the same scene round trip, ~1e-6 px, times the span per pixel
+        assertEquals(-50 * Math.log10(x2[1] / x2[0]) / plotW, Math.log10(x3[0] / x2[0]), 1e-6);
+        assertEquals(30 * (y2[1] - y2[0]) / plotH, y3[0] - y2[0], 1e-6);
         assertTrue(!RoseateWindowTest.fx(chart::autoScaled));
-        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), mouse(MouseEvent.MOUSE_CLICKED, 200, 100, 2)));
+        RoseateWindowTest.fxRun(() -> Event.fireEvent(chart.canvas(), mouse(chart.canvas(), MouseEvent.MOUSE_CLICKED, 200, 100, 2)));
         assertTrue(RoseateWindowTest.fx(chart::autoScaled));
         double[] x4 = RoseateWindowTest.fx(chart::xBoundsHz);
         double[] y4 = RoseateWindowTest.fx(chart::yBoundsDb);
@@ -243,7 +245,7 @@ class BenchViewTest {
         List<Band> bands = table.bands();
         double[] white = new double[bands.size()];
         for (int i = 0; i < white.length; i++) {
-            white[i] = 10 * Math.log10(bands.get(i).widthHz() / bands.get(15).widthHz());
+            white[i] = 10 * Math.log10(bands.get(i).widthHz() / bands.get(17).widthHz());
         }
         assertEquals(-17, white[0], 0.01);
         RoseateWindowTest.fxRun(() -> window.listen().fitMeterScale(white, null, new double[white.length]));
@@ -255,13 +257,18 @@ class BenchViewTest {
         assertEquals(5, RoseateWindowTest.fx(axis::getUpperBound), 0);
     }
 
-    static MouseEvent mouse(javafx.event.EventType<MouseEvent> type, double x, double y, int clicks) {
-        return new MouseEvent(type, x, y, x, y, clicks > 0 ? MouseButton.PRIMARY : MouseButton.NONE, clicks,
+    /** A mouse event at canvas point (x, y); events carry scene coordinates, from which the target's are made. */
+    static MouseEvent mouse(javafx.scene.Node on, javafx.event.EventType<MouseEvent> type, double x, double y, int clicks) {
+        javafx.geometry.Point2D p = on.localToScene(x, y);
+        javafx.geometry.Point2D q = on.localToScreen(x, y);
+        return new MouseEvent(type, p.getX(), p.getY(), q == null ? p.getX() : q.getX(), q == null ? p.getY() : q.getY(),
+                clicks > 0 ? MouseButton.PRIMARY : MouseButton.NONE, clicks,
                 false, false, false, false, clicks > 0, false, false, true, false, false, null);
     }
 
-    static ScrollEvent scroll(double x, double y, double deltaY, boolean shift, boolean ctrl) {
-        return new ScrollEvent(ScrollEvent.SCROLL, x, y, x, y, shift, ctrl, false, false, false, false, 0, deltaY, 0,
+    static ScrollEvent scroll(javafx.scene.Node on, double x, double y, double deltaY, boolean shift, boolean ctrl) {
+        javafx.geometry.Point2D p = on.localToScene(x, y);
+        return new ScrollEvent(ScrollEvent.SCROLL, p.getX(), p.getY(), p.getX(), p.getY(), shift, ctrl, false, false, false, false, 0, deltaY, 0,
                 deltaY, ScrollEvent.HorizontalTextScrollUnits.NONE, 0, ScrollEvent.VerticalTextScrollUnits.NONE, 0, 0, null);
     }
 }
