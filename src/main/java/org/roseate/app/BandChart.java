@@ -20,6 +20,9 @@ final class BandChart extends BarChart<String, Number> {
     private final List<Node> overlay = new ArrayList<>();
     private double[] whiskersDb;
     private double[] markersDb;
+    /** Narrowest automatic level span, dB. */
+    static final double MIN_SPAN_DB = 1;
+    private boolean ownScale = true;
 
     BandChart(String title, String yLabel, String seriesName) {
         super(new CategoryAxis(), new NumberAxis());
@@ -27,6 +30,7 @@ final class BandChart extends BarChart<String, Number> {
         getXAxis().setLabel("Band, nominal midband frequency (Hz)");
         getYAxis().setLabel(yLabel);
         ((NumberAxis) getYAxis()).setForceZeroInRange(true);
+        ((NumberAxis) getYAxis()).setMinorTickCount(0);
         setAnimated(false);
         setLegendVisible(false);
         setBarGap(1);
@@ -34,6 +38,13 @@ final class BandChart extends BarChart<String, Number> {
         bars.setName(seriesName);
         setData(FXCollections.observableArrayList(List.of(bars)));
         getStyleClass().add("band-chart");
+        scale();
+    }
+
+    /** The view sets the level axis itself from now on (the automatic scale of {@link #scale} stops). */
+    void fixedScale() {
+        ownScale = false;
+        getYAxis().setAutoRanging(false);
     }
 
     XYChart.Series<String, Number> bars() {
@@ -50,6 +61,7 @@ final class BandChart extends BarChart<String, Number> {
         ObservableData.setBars(bars, labels, values);
         this.whiskersDb = whiskers == null ? null : whiskers.clone();
         this.markersDb = markers == null ? null : markers.clone();
+        scale();
         ObservableData.redraw(this);
     }
 
@@ -57,7 +69,37 @@ final class BandChart extends BarChart<String, Number> {
         bars.getData().clear();
         whiskersDb = null;
         markersDb = null;
+        scale();
         ObservableData.redraw(this);
+    }
+
+    /**
+     * Unless the view fixed the level axis ({@link #fixedScale}), the axis spans the bars, whiskers and marks by {@link ReadingsChart#levelRange} with at least
+     * {@link #MIN_SPAN_DB}; an empty chart shows ±{@link #MIN_SPAN_DB}. JavaFX's own auto-ranging
+     * would show 0–100 for no data and a ±1e-14 dB axis for values equal within rounding.
+     */
+    private void scale() {
+        NumberAxis y = (NumberAxis) getYAxis();
+        if (!ownScale) {
+            return;
+        }
+        y.setAutoRanging(false);
+        double lo = 0;
+        double hi = 0;
+        var data = bars.getData();
+        boolean any = false;
+        for (int i = 0; i < data.size(); i++) {
+            double v = data.get(i).getYValue().doubleValue();
+            double w = whiskersDb != null && i < whiskersDb.length && Double.isFinite(whiskersDb[i]) ? whiskersDb[i] : 0;
+            double m = markersDb != null && i < markersDb.length && Double.isFinite(markersDb[i]) ? markersDb[i] : v;
+            lo = Math.min(lo, Math.min(v - w, m));
+            hi = Math.max(hi, Math.max(v + w, m));
+            any = true;
+        }
+        double[] r = any ? ReadingsChart.levelRange(lo, hi, MIN_SPAN_DB) : new double[] {-MIN_SPAN_DB, MIN_SPAN_DB, MIN_SPAN_DB / 2};
+        y.setLowerBound(r[0]);
+        y.setUpperBound(r[1]);
+        y.setTickUnit(r[2]);
     }
 
     /** The values shown, in band order (for readouts and tests). */

@@ -524,10 +524,7 @@ final class BenchView {
         if (live != null) {
             LiveMeasurement c = live;
             live = null;
-            window.tasks().devices().submit(() -> {
-                c.close();
-                return null;
-            });
+            c.close(); // as the Measure view does: the capture thread ends within its block time
             inInfo.setText(shown == null ? "Stopped." : describe(shown) + " Stopped.");
         }
         capture.setText("Capture");

@@ -151,9 +151,7 @@ final class ListenView {
                 restartMeter();
             }
         });
-        javafx.scene.chart.NumberAxis my = (javafx.scene.chart.NumberAxis) meter.getYAxis();
-        my.setAutoRanging(false);
-        my.setForceZeroInRange(false);
+        meter.fixedScale(); // fitMeterScale chooses it
         buildLayout();
         updateLevelText();
         poll = new AnimationTimer() {

@@ -24,7 +24,7 @@ import javafx.stage.Stage;
 import org.roseate.model.CircuitModel;
 
 /**
- * The window: four views in tabs (Design, Listen, Measure, Compare), a status bar with the running
+ * The window: five views in tabs (Design, Listen, Measure, Compare, Bench), a status bar with the running
  * task's progress, the keyboard shortcuts, and the state the views share: the analysis settings
  * and the newest design that reads without error.
  */

@@ -283,13 +283,22 @@ final class ReadingsChart extends Region {
             yHi = emptyHiDb;
             return;
         }
+        double[] r = levelRange(lo, hi, minSpanDb);
+        yLo = r[0];
+        yHi = r[1];
+    }
+
+    /**
+     * An automatic level axis for data from {@code lo} to {@code hi} dB: 6 % of the span to spare on
+     * each side, at least {@code minSpanDb} wide, rounded out to a 1-2-5 step of about a sixth of it.
+     *
+     * @return {lower, upper, step}, dB
+     */
+    static double[] levelRange(double lo, double hi, double minSpanDb) {
         double span = hi - lo;
         double pad = Math.max(0.06 * span, (minSpanDb - span) / 2);
-        lo -= pad;
-        hi += pad;
-        double step = niceStep((hi - lo) / 6);
-        yLo = Math.floor(lo / step) * step;
-        yHi = Math.ceil(hi / step) * step;
+        double step = niceStep((span + 2 * pad) / 6);
+        return new double[] {Math.floor((lo - pad) / step) * step, Math.ceil((hi + pad) / step) * step, step};
     }
 
     /** The 1-2-5 step nearest above {@code raw} (&gt; 0). */
