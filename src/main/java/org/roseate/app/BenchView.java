@@ -130,6 +130,8 @@ final class BenchView {
     private final TextField keepName = new TextField();
     private final Button keep = new Button("Keep reading");
     private final Button removeKept = new Button("Remove");
+    private final Button saveKept = new Button("Save…");
+    private final Button openKept = new Button("Open…");
     private final ListView<KeptTrace> kept = new ListView<>();
     private final Map<KeptTrace, javafx.beans.property.BooleanProperty> overlaid = new java.util.IdentityHashMap<>();
     // readings
@@ -223,10 +225,14 @@ final class BenchView {
                 showReferences();
             }
         });
+        saveKept.setOnAction(e -> window.prompts().saveFile(window.stage(), "Save the kept readings", "kept-readings.json",
+                "Kept readings (*.json)", "*.json").ifPresent(this::saveKept));
+        openKept.setOnAction(e -> window.prompts().openFile(window.stage(), "Open kept readings",
+                "Kept readings (*.json)", "*.json").ifPresent(this::openKept));
         keepName.setPromptText("name (optional)");
         kept.setCellFactory(CheckBoxListCell.forListView(this::overlaidProperty));
         kept.setPrefHeight(120);
-        DesignView.keepWidth(loadB, play, capture, reset, hold, keep, removeKept);
+        DesignView.keepWidth(loadB, play, capture, reset, hold, keep, removeKept, saveKept, openKept);
 
         GridPane g = new GridPane();
         g.setHgap(10);
@@ -254,7 +260,7 @@ final class BenchView {
         g.add(ListenView.title("Kept readings"), 0, r++, 2, 1);
         g.add(new HBox(6, keepName, keep), 0, r++, 2, 1);
         g.add(kept, 0, r++, 2, 1);
-        g.add(removeKept, 1, r++);
+        g.add(new HBox(6, removeKept, saveKept, openKept), 0, r++, 2, 1);
         Label caution = new Label(ListenView.CAUTION);
         caution.setWrapText(true);
         caution.getStyleClass().add("hint");
@@ -757,6 +763,43 @@ final class BenchView {
         levels.setReferences(lv);
         minusDesign.setReferences(dd);
         minusTarget.setReferences(dt);
+    }
+
+    /** Writes every kept reading to a file (atomically); the status line says how it went. */
+    void saveKept(Path file) {
+        try {
+            KeptReadingsFile.write(file, kept.getItems());
+            window.showStatus("Saved " + kept.getItems().size() + " kept readings to " + file);
+        } catch (java.io.IOException e) {
+            window.prompts().error(window.stage(), file + ": cannot save (" + e.getMessage() + ")");
+        }
+    }
+
+    /** Adds the readings of a file to the kept ones (those of other bands are refused, by name). */
+    void openKept(Path file) {
+        List<KeptReadingsFile.Stored> stored;
+        try {
+            stored = KeptReadingsFile.read(file);
+        } catch (java.io.IOException e) {
+            window.prompts().error(window.stage(), e.getMessage());
+            return;
+        }
+        List<String> refused = new ArrayList<>();
+        for (KeptReadingsFile.Stored st : stored) {
+            List<Band> b = KeptReadingsFile.matching(st, window.settings().table().bands());
+            if (b == null) {
+                refused.add(st.name());
+                continue;
+            }
+            keptCount++;
+            KeptTrace t = new KeptTrace(st.name(), st.time(), st.settings(), b, st.levelsDb(), st.minusDesignDb(),
+                    st.minusTargetDb(), KEPT_COLOURS[(keptCount - 1) % KEPT_COLOURS.length]);
+            kept.getItems().add(t);
+            overlaidProperty(t);
+        }
+        showReferences();
+        window.showStatus("Opened " + (stored.size() - refused.size()) + " kept readings from " + file.getFileName()
+                + (refused.isEmpty() ? "" : "; not on the bands in use: " + String.join(", ", refused)));
     }
 
     /** Shows or hides a kept trace on the charts. */

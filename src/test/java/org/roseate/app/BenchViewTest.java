@@ -167,6 +167,29 @@ class BenchViewTest {
         RoseateWindowTest.fxRun(() -> bench().setOverlaid(kept.get(1), false));
         assertEquals(1, RoseateWindowTest.fx(() -> bench().minusTargetChart().referenceCount()));
         RoseateWindowTest.snapshot(scene, "bench-kept");
+        // saved and opened again: the same names, times, settings and values (NaN kept as null)
+        Path file = dir.resolve("kept.json");
+        RoseateWindowTest.fxRun(() -> bench().saveKept(file));
+        RoseateWindowTest.fxRun(() -> bench().openKept(file));
+        List<BenchView.KeptTrace> all = RoseateWindowTest.fx(() -> bench().keptTraces());
+        assertEquals(4, all.size());
+        for (int i = 0; i < 2; i++) {
+            BenchView.KeptTrace a = all.get(i);
+            BenchView.KeptTrace b = all.get(i + 2);
+            assertEquals(a.name(), b.name());
+            assertEquals(a.time(), b.time());
+            assertEquals(a.settings(), b.settings());
+            assertEquals(a.bands(), b.bands());
+            org.junit.jupiter.api.Assertions.assertArrayEquals(a.levelsDb(), b.levelsDb(), 0);
+            org.junit.jupiter.api.Assertions.assertArrayEquals(a.minusDesignDb(), b.minusDesignDb(), 0);
+            org.junit.jupiter.api.Assertions.assertArrayEquals(a.minusTargetDb(), b.minusTargetDb(), 0);
+        }
+        // a file that is not one is refused with one line naming it
+        Path other = dir.resolve("bench-pink.json");
+        RoseateWindowTest.fxRun(() -> bench().openKept(other));
+        assertEquals(List.of(other + ": not a kept-readings file (\"keptReadings\": 1 and \"readings\" expected)"),
+                prompts.errors);
+        assertEquals(4, RoseateWindowTest.fx(() -> bench().keptTraces().size()));
     }
 
     @Test
