@@ -280,6 +280,28 @@ class BenchViewTest {
         assertEquals(5, RoseateWindowTest.fx(axis::getUpperBound), 0);
     }
 
+    @Test
+    void theWindowsLineChartsScaleToTheirData() throws Exception {
+        RoseateWindowTest.await(() -> window.model() != null);
+        // Compare before any entry: only the target line, 0 dB re 1 kHz in every band (ideal pink has
+        // equal power per fractional-octave band): a 1 dB-wide axis about 0, not 0–100 nor ±1e-14 dB
+        RoseateWindowTest.fxRun(() -> window.tabs().getSelectionModel().select(3));
+        javafx.scene.chart.NumberAxis y = RoseateWindowTest.fx(() ->
+                (javafx.scene.chart.NumberAxis) window.compare().chart().getYAxis());
+        assertEquals(-0.6, RoseateWindowTest.fx(y::getLowerBound), 1e-12);
+        assertEquals(0.6, RoseateWindowTest.fx(y::getUpperBound), 1e-12);
+        // with the design added the axis holds its band levels, 6 % to spare on a 1-2-5 step
+        RoseateWindowTest.fxRun(() -> window.compare().addCurrent());
+        double[] levels = RoseateWindowTest.fx(() -> window.compare().chart().getData().stream()
+                .flatMap(s -> s.getData().stream()).mapToDouble(d -> d.getYValue().doubleValue()).toArray());
+        double lo = java.util.Arrays.stream(levels).min().orElseThrow();
+        double hi = java.util.Arrays.stream(levels).max().orElseThrow();
+        double[] expected = ReadingsChart.levelRange(lo, hi, 1);
+        assertEquals(expected[0], RoseateWindowTest.fx(y::getLowerBound), 0);
+        assertEquals(expected[1], RoseateWindowTest.fx(y::getUpperBound), 0);
+        assertTrue(expected[0] <= lo && expected[1] >= hi);
+    }
+
     /** A mouse event at canvas point (x, y); events carry scene coordinates, from which the target's are made. */
     static MouseEvent mouse(javafx.scene.Node on, javafx.event.EventType<MouseEvent> type, double x, double y, int clicks) {
         javafx.geometry.Point2D p = on.localToScene(x, y);
