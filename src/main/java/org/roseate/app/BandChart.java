@@ -75,7 +75,7 @@ final class BandChart extends BarChart<String, Number> {
 
     /**
      * Unless the view fixed the level axis ({@link #fixedScale}), the axis spans the bars, whiskers and marks by {@link ReadingsChart#levelRange} with at least
-     * {@link #MIN_SPAN_DB}; an empty chart shows ±{@link #MIN_SPAN_DB}. JavaFX's own auto-ranging
+     * {@link #MIN_SPAN_DB}; an empty chart shows ±{@link #MIN_SPAN_DB}/2. JavaFX's own auto-ranging
      * would show 0–100 for no data and a ±1e-14 dB axis for values equal within rounding.
      */
     private void scale() {
@@ -96,10 +96,9 @@ final class BandChart extends BarChart<String, Number> {
             hi = Math.max(hi, Math.max(v + w, m));
             any = true;
         }
-        double[] r = any ? ReadingsChart.levelRange(lo, hi, MIN_SPAN_DB) : new double[] {-MIN_SPAN_DB, MIN_SPAN_DB, MIN_SPAN_DB / 2};
-        y.setLowerBound(r[0]);
-        y.setUpperBound(r[1]);
-        y.setTickUnit(r[2]);
+        double[] r = ReadingsChart.levelRange(any ? lo : -MIN_SPAN_DB / 2, any ? hi : MIN_SPAN_DB / 2, MIN_SPAN_DB,
+                LevelScale.DIVISIONS);
+        LevelScale.set(y, r);
     }
 
     /** The values shown, in band order (for readouts and tests). */

@@ -42,11 +42,46 @@ final class LevelScale {
                 }
             }
         }
-        double[] r = lo <= hi ? ReadingsChart.levelRange(lo, hi, minSpan)
-                : ReadingsChart.levelRange(-minSpan / 2, minSpan / 2, minSpan);
+        double[] r = lo <= hi ? ReadingsChart.levelRange(lo, hi, minSpan, DIVISIONS)
+                : ReadingsChart.levelRange(-minSpan / 2, minSpan / 2, minSpan, DIVISIONS);
+        set(y, r);
+    }
+
+    /** About this many steps over a JavaFX chart's level axis (each step is labelled). */
+    static final int DIVISIONS = 4;
+
+    /** Sets {lower, upper, step} on an axis, with labels that never read "-0". */
+    static void set(NumberAxis y, double[] r) {
         y.setAutoRanging(false);
+        if (!(y.getTickLabelFormatter() instanceof CleanZero)) {
+            y.setTickLabelFormatter(new CleanZero());
+        }
+        ((CleanZero) y.getTickLabelFormatter()).stepDb = r[2];
         y.setLowerBound(r[0]);
         y.setUpperBound(r[1]);
         y.setTickUnit(r[2]);
+    }
+
+    /**
+     * Tick labels with as many decimals as the step needs; a tick that is zero up to the rounding
+     * of adding steps from the lower bound reads "0" (JavaFX's default would print "-0").
+     */
+    static final class CleanZero extends javafx.util.StringConverter<Number> {
+        double stepDb = 1;
+
+        @Override
+        public String toString(Number n) {
+            double v = n.doubleValue();
+            if (Math.abs(v) < stepDb * 1e-6) {
+                return "0";
+            }
+            int decimals = Math.max(0, (int) Math.ceil(-Math.log10(stepDb) - 1e-9));
+            return String.format(java.util.Locale.ROOT, "%." + decimals + "f", v);
+        }
+
+        @Override
+        public Number fromString(String s) {
+            return Double.valueOf(s);
+        }
     }
 }

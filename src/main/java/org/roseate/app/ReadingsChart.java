@@ -295,10 +295,19 @@ final class ReadingsChart extends Region {
      * @return {lower, upper, step}, dB
      */
     static double[] levelRange(double lo, double hi, double minSpanDb) {
+        return levelRange(lo, hi, minSpanDb, 6);
+    }
+
+    /**
+     * As {@link #levelRange(double, double, double)} with a step of about 1/{@code divisions} of the
+     * span (JavaFX's number axis labels every step from the lower bound, so small charts want fewer).
+     */
+    static double[] levelRange(double lo, double hi, double minSpanDb, int divisions) {
         double span = hi - lo;
         double pad = Math.max(0.06 * span, (minSpanDb - span) / 2);
-        double step = niceStep((span + 2 * pad) / 6);
-        return new double[] {Math.floor((lo - pad) / step) * step, Math.ceil((hi + pad) / step) * step, step};
+        double step = niceStep((span + 2 * pad) / divisions);
+        // 1e-9 of a step: values that sit on a step but for rounding do not add a step
+        return new double[] {Math.floor((lo - pad) / step + 1e-9) * step, Math.ceil((hi + pad) / step - 1e-9) * step, step};
     }
 
     /** The 1-2-5 step nearest above {@code raw} (&gt; 0). */

@@ -288,15 +288,16 @@ class BenchViewTest {
         RoseateWindowTest.fxRun(() -> window.tabs().getSelectionModel().select(3));
         javafx.scene.chart.NumberAxis y = RoseateWindowTest.fx(() ->
                 (javafx.scene.chart.NumberAxis) window.compare().chart().getYAxis());
-        assertEquals(-0.6, RoseateWindowTest.fx(y::getLowerBound), 1e-12);
-        assertEquals(0.6, RoseateWindowTest.fx(y::getUpperBound), 1e-12);
+        assertEquals(-0.5, RoseateWindowTest.fx(y::getLowerBound), 1e-12);
+        assertEquals(0.5, RoseateWindowTest.fx(y::getUpperBound), 1e-12);
+        assertEquals("0", RoseateWindowTest.fx(() -> y.getTickLabelFormatter().toString(-1e-17)));
         // with the design added the axis holds its band levels, 6 % to spare on a 1-2-5 step
         RoseateWindowTest.fxRun(() -> window.compare().addCurrent());
         double[] levels = RoseateWindowTest.fx(() -> window.compare().chart().getData().stream()
                 .flatMap(s -> s.getData().stream()).mapToDouble(d -> d.getYValue().doubleValue()).toArray());
         double lo = java.util.Arrays.stream(levels).min().orElseThrow();
         double hi = java.util.Arrays.stream(levels).max().orElseThrow();
-        double[] expected = ReadingsChart.levelRange(lo, hi, 1);
+        double[] expected = ReadingsChart.levelRange(lo, hi, 1, LevelScale.DIVISIONS);
         assertEquals(expected[0], RoseateWindowTest.fx(y::getLowerBound), 0);
         assertEquals(expected[1], RoseateWindowTest.fx(y::getUpperBound), 0);
         assertTrue(expected[0] <= lo && expected[1] >= hi);
