@@ -20,6 +20,9 @@ final class BandChart extends BarChart<String, Number> {
     private final List<Node> overlay = new ArrayList<>();
     private double[] whiskersDb;
     private double[] markersDb;
+    /** Narrowest automatic level span, dB. */
+    static final double MIN_SPAN_DB = 1;
+    private boolean ownScale = true;
 
     BandChart(String title, String yLabel, String seriesName) {
         super(new CategoryAxis(), new NumberAxis());
@@ -27,6 +30,7 @@ final class BandChart extends BarChart<String, Number> {
         getXAxis().setLabel("Band, nominal midband frequency (Hz)");
         getYAxis().setLabel(yLabel);
         ((NumberAxis) getYAxis()).setForceZeroInRange(true);
+        ((NumberAxis) getYAxis()).setMinorTickCount(0);
         setAnimated(false);
         setLegendVisible(false);
         setBarGap(1);
@@ -34,6 +38,13 @@ final class BandChart extends BarChart<String, Number> {
         bars.setName(seriesName);
         setData(FXCollections.observableArrayList(List.of(bars)));
         getStyleClass().add("band-chart");
+        scale();
+    }
+
+    /** The view sets the level axis itself from now on (the automatic scale of {@link #scale} stops). */
+    void fixedScale() {
+        ownScale = false;
+        getYAxis().setAutoRanging(false);
     }
 
     XYChart.Series<String, Number> bars() {
@@ -50,6 +61,7 @@ final class BandChart extends BarChart<String, Number> {
         ObservableData.setBars(bars, labels, values);
         this.whiskersDb = whiskers == null ? null : whiskers.clone();
         this.markersDb = markers == null ? null : markers.clone();
+        scale();
         ObservableData.redraw(this);
     }
 
@@ -57,7 +69,36 @@ final class BandChart extends BarChart<String, Number> {
         bars.getData().clear();
         whiskersDb = null;
         markersDb = null;
+        scale();
         ObservableData.redraw(this);
+    }
+
+    /**
+     * Unless the view fixed the level axis ({@link #fixedScale}), the axis spans the bars, whiskers and marks by {@link ReadingsChart#levelRange} with at least
+     * {@link #MIN_SPAN_DB}; an empty chart shows ±{@link #MIN_SPAN_DB}/2. JavaFX's own auto-ranging
+     * would show 0–100 for no data and a ±1e-14 dB axis for values equal within rounding.
+     */
+    private void scale() {
+        NumberAxis y = (NumberAxis) getYAxis();
+        if (!ownScale) {
+            return;
+        }
+        y.setAutoRanging(false);
+        double lo = 0;
+        double hi = 0;
+        var data = bars.getData();
+        boolean any = false;
+        for (int i = 0; i < data.size(); i++) {
+            double v = data.get(i).getYValue().doubleValue();
+            double w = whiskersDb != null && i < whiskersDb.length && Double.isFinite(whiskersDb[i]) ? whiskersDb[i] : 0;
+            double m = markersDb != null && i < markersDb.length && Double.isFinite(markersDb[i]) ? markersDb[i] : v;
+            lo = Math.min(lo, Math.min(v - w, m));
+            hi = Math.max(hi, Math.max(v + w, m));
+            any = true;
+        }
+        double[] r = ReadingsChart.levelRange(any ? lo : -MIN_SPAN_DB / 2, any ? hi : MIN_SPAN_DB / 2, MIN_SPAN_DB,
+                LevelScale.DIVISIONS);
+        LevelScale.set(y, r);
     }
 
     /** The values shown, in band order (for readouts and tests). */
@@ -89,8 +130,9 @@ final class BandChart extends BarChart<String, Number> {
             }
             double v = d.getYValue().doubleValue();
             if (whiskersDb != null && i < whiskersDb.length && Double.isFinite(whiskersDb[i])) {
-                double top = y.getDisplayPosition(v + whiskersDb[i]);
-                double bottom = y.getDisplayPosition(v - whiskersDb[i]);
+                // ends kept inside the axis, so a wide ± never makes a line far outside the plot
+                double top = y.getDisplayPosition(clamp(v + whiskersDb[i], y));
+                double bottom = y.getDisplayPosition(clamp(v - whiskersDb[i], y));
                 add(new Line(cx, top, cx, bottom), "whisker");
                 add(new Line(cx - half / 2, top, cx + half / 2, top), "whisker");
                 add(new Line(cx - half / 2, bottom, cx + half / 2, bottom), "whisker");
@@ -100,6 +142,10 @@ final class BandChart extends BarChart<String, Number> {
                 add(new Line(cx - half, my, cx + half, my), "design-marker");
             }
         }
+    }
+
+    private static double clamp(double db, NumberAxis y) {
+        return Math.max(y.getLowerBound(), Math.min(y.getUpperBound(), db));
     }
 
     private void add(Line l, String styleClass) {

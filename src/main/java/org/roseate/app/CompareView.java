@@ -49,6 +49,7 @@ final class CompareView {
         this.window = window;
         target.setName("Target");
         chart = DesignView.lineChart("Band levels re the 1 kHz band", axis, "Level re 1 kHz (dB)", new ArrayList<>());
+        LevelScale.install(chart, 1);
         chart.setCreateSymbols(true);
         chart.getStyleClass().add("compare-chart");
         list.setCellFactory(v -> new javafx.scene.control.ListCell<>() {
@@ -170,6 +171,7 @@ final class CompareView {
         }
         axis.setBounds(Math.min(window.settings().range().loHz(), mid[0]), Math.max(window.settings().range().hiHz(), mid[mid.length - 1]));
         chart.getData().setAll(series);
+        ObservableData.redraw(chart);
 
         List<TableColumn<Integer, ?>> cols = new ArrayList<>();
         List<String> labels = bt.bands().stream().map(b -> b.label()).toList();

@@ -105,6 +105,8 @@ final class DesignView {
         responseChart = lineChart("Response magnitude", responseAxis, "Level (dB)", List.of(response, targetLine));
         responseChart.getStyleClass().add("response-chart");
         deviationChart = lineChart("Deviation from the target line", deviationAxis, "Deviation (dB)", List.of(deviation));
+        LevelScale.install(responseChart, 6);
+        LevelScale.install(deviationChart, 1);
         deviationChart.setLegendVisible(false);
         series.setValue(ESeries.E24);
         target.setValue(target.getItems().get(0));

@@ -12,7 +12,7 @@ final class HelpText {
             "Ctrl+E            export the chart last pointed at (PNG or SVG)",
             "Ctrl+Z            undo (Design view)",
             "Ctrl+Shift+Z      redo (also Ctrl+Y)",
-            "Ctrl+1 … Ctrl+5   Design, Listen, Measure, Compare, Tools",
+            "Ctrl+1 … Ctrl+6   Design, Listen, Measure, Compare, Tools, Bench",
             "Space             play and stop (Listen view, outside text fields)",
             "+ and −           step the selected part one value up or down the series (component table)",
             "F1                this list",

@@ -59,6 +59,10 @@ final class ListenView {
     static final int CHANNELS = 2;
     static final double BUFFER_SECONDS = 0.1;
     static final long SEED = 20240601L;
+    /** The meter's level-axis step, dB: one gridline per 5 dB keeps 30–40 dB spans readable. */
+    static final double METER_STEP_DB = 5;
+    /** Room kept above and below what the meter shows, dB. */
+    static final double METER_MARGIN_DB = 1;
 
     /** What a slot plays. */
     enum SourceKind {
@@ -147,11 +151,7 @@ final class ListenView {
                 restartMeter();
             }
         });
-        javafx.scene.chart.NumberAxis my = (javafx.scene.chart.NumberAxis) meter.getYAxis();
-        my.setAutoRanging(false);
-        my.setLowerBound(-15);
-        my.setUpperBound(15);
-        my.setTickUnit(3);
+        meter.fixedScale(); // fitMeterScale chooses it
         buildLayout();
         updateLevelText();
         poll = new AnimationTimer() {
@@ -486,7 +486,46 @@ final class ListenView {
             w[i] = levels.get(i).uncertaintyDb();
             labels.add(levels.get(i).band().label());
         }
+        fitMeterScale(v, w, t);
         meter.show(labels, v, w, t);
+    }
+
+    /**
+     * Chooses the meter's level axis for what it shows: the bars with their whiskers and the target's
+     * marks, with {@link #METER_MARGIN_DB} to spare, on whole {@link #METER_STEP_DB} steps. The axis
+     * only widens while the reading stays inside it (no jumping at display rate); it narrows when it
+     * is more than two steps wider than needed on a side (a quieter source, a narrower band range).
+     */
+    void fitMeterScale(double[] values, double[] whiskers, double[] marks) {
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = Double.NEGATIVE_INFINITY;
+        for (int i = 0; i < values.length; i++) {
+            double w = whiskers != null && Double.isFinite(whiskers[i]) ? whiskers[i] : 0;
+            if (Double.isFinite(values[i])) {
+                lo = Math.min(lo, values[i] - w);
+                hi = Math.max(hi, values[i] + w);
+            }
+            if (marks != null && Double.isFinite(marks[i])) {
+                lo = Math.min(lo, marks[i]);
+                hi = Math.max(hi, marks[i]);
+            }
+        }
+        if (lo > hi) {
+            lo = -METER_STEP_DB;
+            hi = METER_STEP_DB;
+        }
+        double wantLo = Math.floor((Math.min(lo, 0) - METER_MARGIN_DB) / METER_STEP_DB) * METER_STEP_DB;
+        double wantHi = Math.ceil((Math.max(hi, 0) + METER_MARGIN_DB) / METER_STEP_DB) * METER_STEP_DB;
+        javafx.scene.chart.NumberAxis y = (javafx.scene.chart.NumberAxis) meter.getYAxis();
+        double curLo = y.getLowerBound();
+        double curHi = y.getUpperBound();
+        boolean inside = wantLo >= curLo && wantHi <= curHi;
+        boolean tooWide = wantLo - curLo > 2 * METER_STEP_DB || curHi - wantHi > 2 * METER_STEP_DB;
+        if (!inside || tooWide) {
+            y.setLowerBound(wantLo);
+            y.setUpperBound(wantHi);
+            y.setTickUnit(METER_STEP_DB);
+        }
     }
 
     private double[] targetRe(List<Band> bands, int ref) {
@@ -508,6 +547,9 @@ final class ListenView {
                 ref = i;
             }
         }
-        meter.show(labels, new double[labels.size()], null, targetRe(table.bands(), ref));
+        double[] marks = targetRe(table.bands(), ref);
+        double[] zeros = new double[labels.size()];
+        fitMeterScale(zeros, null, marks);
+        meter.show(labels, zeros, null, marks);
     }
 }

@@ -28,8 +28,22 @@ final class LiveMeasurement implements AutoCloseable {
 
     private final CaptureEngine engine;
     private final CaptureEngine.Delivery delivery;
-    private final MeasurePipeline analyzer;
-    private final AtomicReference<MeasureResult> latest = new AtomicReference<>();
+    private final AtomicReference<Restart> pending = new AtomicReference<>();
+    private volatile long requestedGeneration;
+    private long generation;
+    private final int sampleRateHz;
+    private final int channels;
+    private final double codeFs;
+    private MeasurePipeline analyzer;
+    /** A result and the analysis (counted from 0, one more per restart) it came from. */
+    private record Tagged(long generation, MeasureResult result) {
+    }
+
+    /** A new analysis waiting for the delivery thread. */
+    private record Restart(long generation, MeasurePipeline pipeline) {
+    }
+
+    private final AtomicReference<Tagged> latest = new AtomicReference<>();
     private final AtomicReference<String> problem = new AtomicReference<>();
     private final List<float[]> kept = new ArrayList<>();
     private final long maxKeptSamples;
@@ -44,8 +58,10 @@ final class LiveMeasurement implements AutoCloseable {
      */
     LiveMeasurement(InputLine line, MeasureSetup setup) {
         this.name = line.deviceName();
-        this.analyzer = new MeasurePipeline(setup.request(), name, line.sampleRateHz(), line.channels(),
-                Math.scalb(1.0, -(line.bitsPerSample() - 1)));
+        this.sampleRateHz = line.sampleRateHz();
+        this.channels = line.channels();
+        this.codeFs = Math.scalb(1.0, -(line.bitsPerSample() - 1));
+        this.analyzer = new MeasurePipeline(setup.request(), name, sampleRateHz, channels, codeFs);
         this.maxKeptSamples = (long) (MAX_KEEP_SECONDS * line.sampleRateHz()) * line.channels();
         this.engine = new CaptureEngine(line, Math.max(2 * line.sampleRateHz(), 64 * 1024), 2.0);
         engine.start();
@@ -64,6 +80,12 @@ final class LiveMeasurement implements AutoCloseable {
             }
             keptSamples += n;
         }
+        Restart next = pending.getAndSet(null);
+        if (next != null) {
+            analyzer = next.pipeline();
+            generation = next.generation();
+            lastAverages = 0;
+        }
         if (problem.get() != null) {
             return;
         }
@@ -73,7 +95,7 @@ final class LiveMeasurement implements AutoCloseable {
                 lastAverages = analyzer.averages();
                 MeasureResult r = analyzer.result(false);
                 if (r != null) {
-                    latest.set(r);
+                    latest.set(new Tagged(generation, r));
                 }
             }
         } catch (MeasureException e) {
@@ -81,8 +103,23 @@ final class LiveMeasurement implements AutoCloseable {
         }
     }
 
+    /**
+     * Starts the averaging again from the next captured block, with a new setup (the same line):
+     * the reading so far is dropped ({@link #latest()} is null until the first new segment).
+     *
+     * @throws org.roseate.measure.MeasureException when the setup does not fit the line
+     */
+    synchronized void restartAnalysis(MeasureSetup setup) {
+        MeasurePipeline p = new MeasurePipeline(setup.request(), name, sampleRateHz, channels, codeFs);
+        long g = requestedGeneration + 1;
+        pending.set(new Restart(g, p));
+        requestedGeneration = g;
+    }
+
+    /** The newest result of the current analysis (since the last restart), or null. */
     MeasureResult latest() {
-        return latest.get();
+        Tagged t = latest.get();
+        return t == null || t.generation() != requestedGeneration ? null : t.result();
     }
 
     /** A device failure or analysis problem, one line, or null. */

@@ -24,7 +24,7 @@ import javafx.stage.Stage;
 import org.roseate.model.CircuitModel;
 
 /**
- * The window: four views in tabs (Design, Listen, Measure, Compare), a status bar with the running
+ * The window: six views in tabs (Design, Listen, Measure, Compare, Tools, Bench), a status bar with the running
  * task's progress, the keyboard shortcuts, and the state the views share: the analysis settings
  * and the newest design that reads without error.
  */
@@ -48,6 +48,7 @@ final class MainWindow {
     private ToolsView tools;
     private BudgetPanel budget;
     private MenuBarBuilder menus;
+    private BenchView bench;
     private boolean cautionAccepted;
 
     MainWindow(Prompts prompts, Path workingDir) {
@@ -68,8 +69,10 @@ final class MainWindow {
         javafx.scene.control.SplitPane designWithBudget = new javafx.scene.control.SplitPane(design.root(), budget.root());
         designWithBudget.setOrientation(javafx.geometry.Orientation.VERTICAL);
         designWithBudget.setDividerPositions(0.8);
+        bench = new BenchView(this);
         tabs.getTabs().setAll(List.of(tab("Design", designWithBudget), tab("Listen", listen.root()),
-                tab("Measure", measure.root()), tab("Compare", compare.root()), tab("Tools", tools.root())));
+                tab("Measure", measure.root()), tab("Compare", compare.root()), tab("Tools", tools.root()),
+                tab("Bench", bench.root())));
         tabs.setTabClosingPolicy(TabPane.TabClosingPolicy.UNAVAILABLE);
         tabs.getStyleClass().add("views");
 
@@ -130,7 +133,7 @@ final class MainWindow {
     }
 
     private void installShortcuts(Scene scene) {
-        for (int i = 0; i < 4; i++) {
+        for (int i = 0; i < tabs.getTabs().size() && i < 9; i++) {
             int index = i;
             scene.getAccelerators().put(new KeyCodeCombination(KeyCode.getKeyCode(String.valueOf(i + 1)),
                     KeyCombination.SHORTCUT_DOWN), () -> tabs.getSelectionModel().select(index));
@@ -170,6 +173,7 @@ final class MainWindow {
         }
         listen.stop();
         measure.stop();
+        bench.stop();
         design.shutdown();
         tools.shutdown();
         budget.shutdown();
@@ -273,5 +277,9 @@ final class MainWindow {
 
     MenuBarBuilder menus() {
         return menus;
+    }
+
+    BenchView bench() {
+        return bench;
     }
 }

@@ -112,6 +112,7 @@ final class MeasureView {
         coherence.setName("Coherence γ²");
         magnitudeChart = DesignView.lineChart("Transfer magnitude", new LogAxis("Frequency (Hz)", 20, 20000),
                 "Level re 1 kHz (dB)", List.of(measured, designCurve, targetCurve));
+        LevelScale.install(magnitudeChart, 6);
         coherenceChart = DesignView.lineChart("Coherence", new LogAxis("Frequency (Hz)", 20, 20000), "γ² (0 … 1)",
                 List.of(coherence));
         NumberAxis cy = (NumberAxis) coherenceChart.getYAxis();
@@ -452,7 +453,7 @@ final class MeasureView {
                 + "");
         bands.show(t.bands().stream().map(l -> l.band().label()).toList(),
                 t.bands().stream().mapToDouble(BandResult::deviationDb).toArray(),
-                null, designMarks());
+                t.bands().stream().mapToDouble(b -> b.trusted() ? b.uncertaintyDb() : Double.NaN).toArray(), designMarks());
         List<ResponsePoint> pts = t.points();
         int ref = 0;
         for (int i = 0; i < pts.size(); i++) {

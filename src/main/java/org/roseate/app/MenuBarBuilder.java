@@ -47,7 +47,7 @@ final class MenuBarBuilder {
         Menu file = new Menu("File", null, open, recentMenu, new SeparatorMenuItem(), save, saveAs,
                 new SeparatorMenuItem(), exportChart, new SeparatorMenuItem(), quit);
         Menu view = new Menu("View");
-        String[] names = {"Design", "Listen", "Measure", "Compare", "Tools"};
+        String[] names = {"Design", "Listen", "Measure", "Compare", "Tools", "Bench"};
         for (int i = 0; i < names.length; i++) {
             int index = i;
             view.getItems().add(item(names[i], () -> window.tabs().getSelectionModel().select(index),

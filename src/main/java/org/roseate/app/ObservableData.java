@@ -27,6 +27,7 @@ final class ObservableData {
      */
     static void redraw(Chart chart) {
         if (chart != null) {
+            LevelScale.apply(chart);
             chart.requestLayout();
         }
     }

@@ -249,6 +249,13 @@ class RoseateWindowTest {
             assertTrue(p.coherence() > 0.99, p.hz() + " Hz: γ² " + p.coherence());
         }
         assertTrue(fx(() -> window.measure().coherenceSeries().getData().size()) > 50);
+        // the transfer bars carry the ± of each trusted band (a wire: γ² = 1, so σ = 0 by the formula)
+        double[] whiskers = fx(() -> window.measure().bandChart().whiskers());
+        assertNotNull(whiskers, "transfer bars have whiskers");
+        for (int i = 0; i < whiskers.length; i++) {
+            var b = o.bands().get(i);
+            assertEquals(b.trusted() ? b.uncertaintyDb() : Double.NaN, whiskers[i], 0, b.band().label());
+        }
         snapshot("measure-transfer");
     }
 
