@@ -29,15 +29,15 @@ import org.roseate.noise.WhiteNoiseSource;
  *     d² up to M·fs/2;</li>
  * <li>its 1/f part, synthesised from log-spaced real poles as the ideal-pink reference is
  *     ({@link IdealPink}), here in parallel rather than as a ladder: K first-order (Ornstein–Uhlenbeck)
- *     processes with corners f_k = fLow·e^{(k+½)Δ}, Δ = ln(fTop/fLow)/K ≤ ln(10)/3, each of variance
- *     d²·fc·Δ, stepped exactly in time (x ← a·x + √(1 − a²)·σ·g, a = e^{−2πf_k/(M·fs)}) and started in
- *     their stationary distribution. A log-uniform spread of Lorentzians sums to 1/f:
- *     ∫ (2/π)·(1/f_k)/(1 + (f/f_k)²) d(ln f_k) = 1/f; with spacing Δ the sum ripples by a relative
- *     2·sech(π²/Δ) (Poisson's summation formula; 2e-5 at three per decade) between fLow·e^Δ and
- *     fTop·e^{−Δ}, flattens below fLow and falls above fTop, and its total power d²·fc·ln(fTop/fLow) is
- *     exactly the power of d²·fc/f over [fLow, fTop]. (The series ladder of the ideal-pink reference
- *     cannot reach 1/T inside the digital chain: its poles there sit within 1e-7 of the unit circle and the
- *     stationary start of the cascade does not converge.)</li>
+ *     processes with corners f_k = fLow·e^{(k+½)Δ} from fLow up to {@link #CORNERS_ABOVE_TOP}·fTop (at most
+ *     M·fs/20), Δ ≤ ln(10)/3, each of variance d²·fc·Δ, stepped exactly in time
+ *     (x ← a·x + √(1 − a²)·σ·g, a = e^{−2πf_k/(M·fs)}) and started in their stationary distribution. A
+ *     log-uniform spread of Lorentzians sums to 1/f: ∫ (2/π)·(1/f_k)/(1 + (f/f_k)²) d(ln f_k) = 1/f; with
+ *     spacing Δ the sum ripples by a relative 2·sech(π²/Δ) (Poisson's summation formula; 2e-5 at three per
+ *     decade) between fLow·e^Δ and the top corner, flattens below fLow, and the power of its lower end
+ *     equals that of d²·fc/f cut sharply at fLow (the sum's corners start half a step above fLow). (The
+ *     series ladder of the ideal-pink reference cannot reach 1/T inside the digital chain: its poles there
+ *     sit within 1e-7 of the unit circle and the stationary start of the cascade does not converge.)</li>
  * </ol>
  * The filter starts in the stationary state of its white input and then runs 20 of the design's slowest
  * time constants (at most {@link #MAX_WARM_UP_SECONDS}) on the source, discarded, so the 1/f part's
@@ -53,11 +53,17 @@ import org.roseate.noise.WhiteNoiseSource;
  * density has unbounded power below any frequency; so the rendered band is fLow = 1/T to fTop, the
  * decimator's passband edge ({@link Decimator#audioPassbandEdgeHz}).
  *
- * <p><b>What the render should show</b> ({@link #expectation()}): the budget's densities with the source's
- * 1/f part as rendered (the Lorentzian sum) and the own noise as rendered (flat below fLow), integrated
- * over (0, fTop] by {@link Quadrature}. The RMS, the rate of change and Rice's zero-crossing rate follow;
- * for a record sampled at fs the first difference and the sign changes between samples are what can be
- * counted, so the expectation also gives their exact sampled forms (see {@link Expectation}).
+ * <p><b>What the render should show</b> ({@link #expectation()}): the density the record holds,
+ * integrated over (0, fs/2] by {@link Quadrature}: the digital path's |H_d(f)|² (sections and decimator;
+ * the analog model below 2e-4·fs) times the source as generated (d² plus the exact density of each sampled
+ * first-order process), plus the own noise as synthesised (N(f), flat below fLow, nothing above fTop). The
+ * RMS, the rate of change and Rice's zero-crossing rate follow; for a record sampled at fs the first
+ * difference and the sign changes between samples are what can be counted, so the expectation also gives
+ * their exact sampled forms, and one record's sampling error (see {@link Expectation}). Beside it,
+ * {@link Expectation#budget()} is the budget of the analog circuit over [fLow, fTop]; the two differ by the
+ * digital model's fidelity (±0.1 dB per third-octave band) and by what lies outside the band.
+ *
+ * <p>Not thread-safe; {@link #render} allocates nothing.
  */
 public final class VoltsRender implements FrameSource {
     /** Largest FIR kernel for the circuit's own noise. */
@@ -82,6 +88,7 @@ public final class VoltsRender implements FrameSource {
     private final double whiteStd;
     private final double[] cornerA;
     private final double[] cornerB;
+    private final org.roseate.digital.FidelityReport fidelity;
 
     /** One independent signal: its generators, its filter, its own-noise synthesis. */
     private static final class Stream {
@@ -161,6 +168,7 @@ public final class VoltsRender implements FrameSource {
         Zpk h = CircuitModel.of(design, name).zpk();
         NoiseChain chain = NoiseChain.design(h, new ChainSettings(sampleRateHz, 1, false, seed, -20), name);
         OversampledFilter filter = chain.filter().orElseThrow();
+        fidelity = chain.fidelity().orElseThrow();
         factor = filter.factor();
         double innerRate = factor * sampleRateHz;
         whiteStd = src.densityVPerRtHz() * Math.sqrt(innerRate / 2);
@@ -356,6 +364,11 @@ public final class VoltsRender implements FrameSource {
         }
         double msSigma = Math.sqrt(integralOfSquare / seconds);
         return 0.5 * msSigma / rms;
+    }
+
+    /** The digital model's fidelity: each third-octave band against the analog model, and the oversampling. */
+    public org.roseate.digital.FidelityReport fidelity() {
+        return fidelity;
     }
 
     public Expectation expectation() {

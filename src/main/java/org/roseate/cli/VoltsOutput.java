@@ -10,6 +10,7 @@ import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
 import java.util.List;
+import org.roseate.budget.BudgetResult;
 import org.roseate.budget.Gaussian;
 import org.roseate.budget.RecordStatistics;
 import org.roseate.budget.VoltsRender;
@@ -91,9 +92,10 @@ final class VoltsOutput {
                     frames / rateHz, rateHz, cmd.channels, cmd.channels == 1 ? "" : "s" + (cmd.identical ? " (identical)" : " (independent)"),
                     csv ? "CSV of volts" : encodingLabel() + Numbers.f(", full scale = %.4g V", fsVolts)));
             out.println(Numbers.f("Source: %.4g V/√Hz white, 1/f corner %s Hz; with the circuit's own noise. Rendered band %s – %s"
-                    + " (1/T to the decimator's passband edge; a first-order high-pass at 1/T holds the 1/f part's power"
-                    + " to the band)", src.densityVPerRtHz(), Numbers.plain(src.flickerCornerHz()), Numbers.hz(e.fLowHz()),
+                    + " (1/T, the slowest fluctuation the duration holds, to the decimator's passband edge)",
+                    src.densityVPerRtHz(), Numbers.plain(src.flickerCornerHz()), Numbers.hz(e.fLowHz()),
                     Numbers.hz(e.fTopHz())));
+            out.print(Fidelity.table(render.fidelity(), org.roseate.noise.NoiseChain.FIDELITY_TOLERANCE_DB));
             if (!csv && cmd.voltsPerFs == null) {
                 out.println(Numbers.f("No --volts-per-fs: the real output's shape is scaled to %.2f dBFS (full scale = %.4g V)",
                         cmd.levelDbfs, fsVolts));
@@ -166,7 +168,7 @@ final class VoltsOutput {
             err.flush();
         }
         if (cmd.format == RenderCommand.Format.json) {
-            out.print(json(e, rec, volts, file, fsVolts, clipped));
+            out.print(json(render, e, rec, volts, file, fsVolts, clipped));
         } else {
             out.print(table(e, rec, volts, file, fsVolts, clipped));
         }
@@ -196,31 +198,41 @@ final class VoltsOutput {
     private String table(VoltsRender.Expectation e, RecordStatistics r, SignalStatistics v, SignalStatistics file,
             double fsVolts, long clipped) {
         StringBuilder sb = new StringBuilder();
-        sb.append(Numbers.f("%nIn volts (channel 1)            %14s   %s%n", "this record", "expected from the budget's densities over the rendered band"));
-        sb.append(Numbers.f("  RMS                           %12.4g V   %.4g V ± %.2g (1σ of one record; source %.4g V, circuit's own %.3g V)%n",
-                r.rmsV(), e.rmsV(), e.rmsSigmaV(), e.sourceRmsV(), e.selfNoiseRmsV()));
-        sb.append(Numbers.f("  rate of change (difference×fs) %11.4g V/s %.4g V/s ± %.2g (1σ); continuous (2πf)²: %.4g V/s%n",
-                r.sampledRateRmsVPerS(), e.sampledRateRmsVPerS(), e.sampledRateSigmaVPerS(), e.rateRmsVPerS()));
-        sb.append(Numbers.f("  zero crossings                %12.4g /s  %.4g /s between samples, fs·arccos(ρ₁)/π; Rice: %.4g /s"
-                + " (record: ± %.2g, 1σ from %d segments)%n", r.crossingsPerS(), e.sampledCrossingsPerS(), e.zeroCrossingsPerS(),
-                r.crossingsStandardErrorPerS(), RecordStatistics.SEGMENTS));
+        BudgetResult b = e.budget();
+        sb.append(Numbers.f("%nIn volts (channel 1)        %12s   %-34s %s%n", "this record", "expected for this record (± 1σ)",
+                "budget over the band"));
+        sb.append(Numbers.f("  RMS                       %12.4g V %-34s %.4g V%n", r.rmsV(),
+                Numbers.f("%.4g V ± %.2g", e.rmsV(), e.rmsSigmaV()), b.outputRmsV()));
+        sb.append(Numbers.f("  rate of change            %12.4g V/s %-32s %.4g V/s%n", r.sampledRateRmsVPerS(),
+                Numbers.f("%.4g V/s ± %.2g", e.sampledRateRmsVPerS(), e.sampledRateSigmaVPerS()), b.rateRmsVPerS()));
+        sb.append(Numbers.f("  zero crossings            %12.4g /s %-33s %.4g /s (Rice)%n", r.crossingsPerS(),
+                Numbers.f("%.4g /s (record ± %.2g)", e.sampledCrossingsPerS(), r.crossingsStandardErrorPerS()), b.zeroCrossingsPerS()));
+        sb.append(Numbers.f("  of the expected RMS: source %.4g V, circuit's own %.3g V%n", e.sourceRmsV(), e.selfNoiseRmsV()));
         sb.append(Numbers.f("  mean %+.4g V, peak %.4g V%n", v.mean(), v.peak()));
         StringBuilder p = new StringBuilder("  percentiles:");
         for (double q : RenderCommand.PERCENTILES) {
             p.append(Numbers.f("  %s%%: %+.4g V", q == (long) q ? Long.toString((long) q) : Double.toString(q), v.percentile(q)));
         }
         sb.append(p).append('\n');
-        if (!csv) {
+        if (!csv && cmd.voltsPerFs == null) {
+            sb.append(Numbers.f("Level: %.2f dBFS RMS (requested %.2f), peak %.2f dBFS, crest factor %.2f dB; %d clipped sample%s%n",
+                    file.rmsDbfs(), cmd.levelDbfs, file.peakDbfs(), file.crestFactorDb(), clipped, clipped == 1 ? "" : "s"));
+        } else if (!csv) {
             sb.append(Numbers.f("File: %.2f dBFS RMS, peak %.2f dBFS (full scale %.4g V); %d sample%s at or beyond full scale%n",
                     file.rmsDbfs(), file.peakDbfs(), fsVolts, clipped, clipped == 1 ? "" : "s"));
         }
-        sb.append("The record differs from the expectation by its sampling error and by the digital model's fidelity"
-                + " (each third-octave band within ±0.1 dB of the analog model).\n");
+        sb.append("Expected for this record: the density the file holds (the digital model's response, the source as"
+                + " generated, the own noise as synthesised) over 0 Hz to fs/2; the rate is the first difference × fs and"
+                + " the crossings are sign changes between samples, fs·arccos(ρ₁)/π for a Gaussian signal; ± is one"
+                + " standard deviation of one record ((1/T)·∫S² df for a mean square; the crossings' from 16 segments of"
+                + " this record). The budget's figures are the analog circuit's over the rendered band; they differ from"
+                + " the expectation by the digital model's fidelity (±0.1 dB per third-octave band) and by what lies"
+                + " outside the band.\n");
         sb.append("Wrote ").append(cmd.output).append('\n');
         return sb.toString();
     }
 
-    private String json(VoltsRender.Expectation e, RecordStatistics r, SignalStatistics v, SignalStatistics file,
+    private String json(VoltsRender render, VoltsRender.Expectation e, RecordStatistics r, SignalStatistics v, SignalStatistics file,
             double fsVolts, long clipped) {
         ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
         ObjectNode root = m.createObjectNode();
@@ -238,6 +250,9 @@ final class VoltsOutput {
             root.put("peakDbfs", file.peakDbfs());
             root.put("clippedSamples", clipped);
         }
+        root.put("oversamplingFactor", render.fidelity().factor());
+        root.put("fidelityToleranceDb", org.roseate.noise.NoiseChain.FIDELITY_TOLERANCE_DB);
+        Fidelity.json(render.fidelity(), org.roseate.noise.NoiseChain.FIDELITY_TOLERANCE_DB, root.putArray("fidelity"));
         ArrayNode band = root.putArray("rangeHz");
         band.add(e.fLowHz());
         band.add(e.fTopHz());
@@ -262,6 +277,12 @@ final class VoltsOutput {
         ex.put("sampledRateSigmaVPerS", e.sampledRateSigmaVPerS());
         ex.put("zeroCrossingsPerS", e.zeroCrossingsPerS());
         ex.put("sampledZeroCrossingsPerS", e.sampledCrossingsPerS());
+        ObjectNode bud = root.putObject("budget");
+        bud.put("outputRmsV", e.budget().outputRmsV());
+        bud.put("sourceRmsV", e.budget().sourceRmsV());
+        bud.put("selfNoiseRmsV", e.budget().selfNoiseRmsV());
+        bud.put("rateRmsVPerS", e.budget().rateRmsVPerS());
+        bud.put("zeroCrossingsPerS", e.budget().zeroCrossingsPerS());
         try {
             return m.writeValueAsString(root) + System.lineSeparator();
         } catch (com.fasterxml.jackson.core.JsonProcessingException x) {
