@@ -30,6 +30,12 @@ final class SourceCapture {
     /** Highest band centre, Hz, or 0.45·fs when lower (clear of the converter's anti-alias roll-off). */
     static final double FIT_HIGH_HZ = 20000;
 
+    /**
+     * Shortest capture, s: the 10 Hz band's analysis segment is about 5 s (the measurement core's automatic
+     * choice at 48 kHz), and a fit wants several of them averaged.
+     */
+    static final double MIN_SECONDS = 20;
+
     private SourceCapture() {
     }
 
@@ -51,10 +57,17 @@ final class SourceCapture {
                     + " scale) or a --calibration that carries them; the source's density must be in V/√Hz");
         }
         double rate = 48000;
+        long frames = -1;
         try (WavReader r = WavReader.open(capture)) {
             rate = r.format().sampleRateHz();
+            frames = r.frames();
         } catch (IOException | RuntimeException e) {
             // the measurement below reports an unreadable capture with the project's usual message
+        }
+        if (frames >= 0 && frames < MIN_SECONDS * rate) {
+            throw new UserInputException(Numbers.f("%s: the capture is %.3g s; the source fit reads third-octave bands down to"
+                    + " %.0f Hz, which needs at least %.0f s of the bare source (several analysis segments of about 5 s)",
+                    capture.getFileName(), frames / rate, FIT_LOW_HZ, MIN_SECONDS));
         }
         double top = Math.min(FIT_HIGH_HZ, 0.45 * rate);
         MeasureResult res;
