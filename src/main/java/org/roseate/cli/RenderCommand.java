@@ -88,6 +88,17 @@ final class RenderCommand implements Callable<Integer> {
     @Option(names = "--force", description = "replace an existing output file")
     boolean force;
 
+    @Option(names = "--source-capture", paramLabel = "SOURCE.wav", description = "a capture of the bare noise source: its d "
+            + "and 1/f corner are fitted (as 'budget --source-capture' does) and replace the design's \"source\"")
+    Path sourceCapture;
+
+    @Option(names = "--source-volts-per-fs", paramLabel = "V", description = "with --source-capture: volts at the capture's full scale")
+    Double sourceVoltsPerFs;
+
+    @Option(names = "--source-calibration", paramLabel = "cal.json", description = "with --source-capture: a calibration from "
+            + "'measure --save-calibration' that carries the capture's volts per full scale")
+    Path sourceCalibration;
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
@@ -154,9 +165,24 @@ final class RenderCommand implements Callable<Integer> {
         if (source == Source.design && design == null) {
             throw new UserInputException("render: name a design file, or use --source white or --source ideal-pink");
         }
+        if (sourceCapture == null && (sourceVoltsPerFs != null || sourceCalibration != null)) {
+            throw new UserInputException((sourceVoltsPerFs != null ? "--source-volts-per-fs" : "--source-calibration")
+                    + " needs --source-capture: it scales the capture of the bare source");
+        }
+        if (sourceCapture != null && source != Source.design) {
+            throw new UserInputException("--source-capture needs --source design: it replaces a design's \"source\"");
+        }
         Design sourced = null;
         if (source == Source.design) {
             Design d = DesignReader.read(design);
+            if (sourceCapture != null) {
+                org.roseate.budget.SourceFit.Result fit = SourceCapture.fit(sourceCapture, sourceVoltsPerFs, sourceCalibration,
+                        err, "--source-volts-per-fs", "--source-calibration");
+                d = d.withSource(java.util.Optional.of(fit.source()), d.temperatureC());
+                if (format == Format.table) {
+                    out.println(SourceCapture.describe(sourceCapture, fit));
+                }
+            }
             if (d.source().isPresent()) {
                 sourced = d;
             }

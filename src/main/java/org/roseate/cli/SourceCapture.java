@@ -41,8 +41,14 @@ final class SourceCapture {
 
     /** The fitted source; warnings of the measurement (clipping, …) go to {@code err}. */
     static SourceFit.Result fit(Path capture, Double voltsPerFs, Path calibration, PrintWriter err) {
+        return fit(capture, voltsPerFs, calibration, err, "--volts-per-fs", "--calibration");
+    }
+
+    /** As {@link #fit(Path, Double, Path, PrintWriter)}, naming the volts and calibration options as the command calls them. */
+    static SourceFit.Result fit(Path capture, Double voltsPerFs, Path calibration, PrintWriter err, String voltsOption,
+            String calibrationOption) {
         if (voltsPerFs != null && !(voltsPerFs > 0 && Double.isFinite(voltsPerFs))) {
-            throw new UserInputException("--volts-per-fs: expected a positive number of volts, found " + voltsPerFs);
+            throw new UserInputException(voltsOption + ": expected a positive number of volts, found " + voltsPerFs);
         }
         Calibration cal = null;
         if (calibration != null) {
@@ -53,8 +59,8 @@ final class SourceCapture {
             }
         }
         if (voltsPerFs == null && (cal == null || Double.isNaN(cal.voltsPerFullScale()))) {
-            throw new UserInputException("--source-capture needs volts: give --volts-per-fs V (volts at the capture's full"
-                    + " scale) or a --calibration that carries them; the source's density must be in V/√Hz");
+            throw new UserInputException("--source-capture needs volts: give " + voltsOption + " V (volts at the capture's full"
+                    + " scale) or a " + calibrationOption + " that carries them; the source's density must be in V/√Hz");
         }
         double rate = 48000;
         long frames = -1;

@@ -91,9 +91,9 @@ final class VoltsOutput {
             out.println("Rendering " + name + " in volts to " + cmd.output.getFileName() + Numbers.f(": %.3f s at %.0f Hz, %d channel%s, %s",
                     frames / rateHz, rateHz, cmd.channels, cmd.channels == 1 ? "" : "s" + (cmd.identical ? " (identical)" : " (independent)"),
                     csv ? "CSV of volts" : encodingLabel() + Numbers.f(", full scale = %.4g V", fsVolts)));
-            out.println(Numbers.f("Source: %.4g V/√Hz white, 1/f corner %s Hz; with the circuit's own noise. Rendered band %s – %s"
+            out.println(Numbers.f("Source: %.4g V/√Hz white, 1/f corner %.4g Hz; with the circuit's own noise. Rendered band %s – %s"
                     + " (1/T, the slowest fluctuation the duration holds, to the decimator's passband edge)",
-                    src.densityVPerRtHz(), Numbers.plain(src.flickerCornerHz()), Numbers.hz(e.fLowHz()),
+                    src.densityVPerRtHz(), src.flickerCornerHz(), Numbers.hz(e.fLowHz()),
                     Numbers.hz(e.fTopHz())));
             out.print(Fidelity.table(render.fidelity(), org.roseate.noise.NoiseChain.FIDELITY_TOLERANCE_DB));
             if (!csv && cmd.voltsPerFs == null) {

@@ -72,6 +72,25 @@ class SourceCaptureTest {
         assertTrue(t.out().contains("Source: fitted to junction.wav: d = "), t.out());
     }
 
+    /** render takes the fitted source too: its volts follow the capture, not the design file's source. */
+    @Test
+    void renderUsesTheFittedSource() throws Exception {
+        Path out = dir.resolve("fitted.csv");
+        var r = AnalyzeCommandTest.run("render", "presets/random-voltage.json", "--control-rate", "100", "--seconds", "30",
+                "-o", out.toString(), "--source-capture", capture.toString(), "--source-volts-per-fs",
+                Double.toString(VOLTS_PER_FS));
+        assertEquals(0, r.status(), r.err());
+        assertTrue(r.out().contains("Source: fitted to junction.wav: d = "), r.out());
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("white, 1/f corner ([0-9.]+) Hz").matcher(r.out());
+        assertTrue(m.find(), r.out());
+        // the render uses the capture's corner (about 250 Hz), not the design file's 120 Hz
+        assertEquals(FC, Double.parseDouble(m.group(1)), 0.1 * FC, r.out());
+        var refused = AnalyzeCommandTest.run("render", "presets/random-voltage.json", "--control-rate", "100", "-o",
+                dir.resolve("x.csv").toString(), "--source-volts-per-fs", "1");
+        assertEquals(2, refused.status());
+        assertTrue(refused.err().startsWith("roseate: --source-volts-per-fs needs --source-capture"), refused.err());
+    }
+
     @Test
     void aCaptureWithoutVoltsIsRefused() {
         var r = AnalyzeCommandTest.run("budget", "presets/random-voltage.json", "--source-capture", capture.toString());

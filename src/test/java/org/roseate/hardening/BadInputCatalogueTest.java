@@ -133,6 +133,7 @@ class BadInputCatalogueTest {
         row("budget", "render --volts-per-fs at an audio rate without a source", 2, false, "--volts-per-fs at audio rates needs a design with a \"source\"", "render", "@good.json", "-o", "@v3.wav", "--volts-per-fs", "1");
         row("budget", "render a control-rate WAV of a design with a source without --volts-per-fs", 2, false, "--volts-per-fs is needed: sourced.json has a \"source\"", "render", "@sourced.json", "--control-rate", "100", "-o", "@v4.wav", "--seconds", "60");
         row("budget", "render a design with a source for too short a time", 2, false, "--seconds: 0.05 s is too short for a design with a \"source\"", "render", "@sourced.json", "--control-rate", "100", "-o", "@v5.csv", "--seconds", "0.05");
+        row("budget", "render --source-volts-per-fs without --source-capture", 2, false, "--source-volts-per-fs needs --source-capture", "render", "@sourced.json", "-o", "@v6.wav", "--source-volts-per-fs", "1");
         row("argument", "analyze --range 20k-20", 2, false, "--range:", "analyze", "@good.json", "--range", "20k-20");
         row("argument", "analyze --range abc", 2, false, "--range:", "analyze", "@good.json", "--range", "abc");
         row("argument", "analyze --bands fifth", 2, false, "--bands: expected octave or third, found 'fifth'", "analyze", "@good.json", "--bands", "fifth");
