@@ -36,7 +36,9 @@ import picocli.CommandLine.Spec;
 /** {@code render DESIGN.json -o out.wav}: the design's noise to a file, streaming. */
 @Command(name = "render", mixinStandardHelpOptions = true,
         description = {"Render white noise through the design's digital model to a WAV file (or, at control rates, "
-                + "WAV or CSV). Memory stays constant whatever the duration; the file appears only when complete."})
+                + "WAV or CSV). A design with a \"source\" renders its real output in volts: the source and the circuit's "
+                + "own noise (CSV of volts at control rates; --volts-per-fs maps volts to a WAV). Memory stays constant "
+                + "whatever the duration; the file appears only when complete."})
 final class RenderCommand implements Callable<Integer> {
     static final int[] AUDIO_RATES = {44100, 48000, 96000, 192000};
 
