@@ -80,9 +80,9 @@ final class VoltsOutput {
                     : e.rmsV() * Math.sqrt(2) / Math.pow(10, cmd.levelDbfs / 20);
             double overs = (double) frames * cmd.channels * Gaussian.exceedanceProbability(fsVolts, e.rmsV());
             if (cmd.voltsPerFs != null && overs >= 1) {
-                throw new UserInputException(Numbers.f("--volts-per-fs %.4g: the output's expected RMS is %.4g V, so about %.3g"
+                throw new UserInputException(Numbers.f("--volts-per-fs %s: the output's expected RMS is %.4g V, so about %.3g"
                         + " of the %d samples would pass full scale and clip; use --volts-per-fs %.3g or more (expected"
-                        + " count below %s)", cmd.voltsPerFs, e.rmsV(), overs, frames * cmd.channels,
+                        + " count below %s)", java.math.BigDecimal.valueOf(cmd.voltsPerFs).stripTrailingZeros().toPlainString(), e.rmsV(), overs, frames * cmd.channels,
                         suggestedFullScale(e.rmsV(), frames * cmd.channels), Numbers.plain(SUGGESTED_EXPECTED_OVERS)));
             }
         }
