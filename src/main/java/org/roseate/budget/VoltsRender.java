@@ -111,7 +111,7 @@ public final class VoltsRender implements FrameSource {
      * @param fLowHz                the span's low end, 1/T, Hz
      * @param fTopHz                top of the rendered band, Hz
      * @param rmsV                  expected RMS, V
-     * @param rmsSigmaV             one standard deviation of one record's RMS about it, V (see {@link #sigma})
+     * @param rmsSigmaV             one standard deviation of one record's RMS about it, V (see {@link VoltsRender#sigma})
      * @param rateRmsVPerS          expected RMS rate of change (2πf)², V/s (the budget's definition)
      * @param sampledRateRmsVPerS   expected RMS of the first difference × fs, V/s: (2·fs·sin(πf/fs))² in place of (2πf)²
      * @param sampledRateSigmaVPerS one standard deviation of one record's first-difference RMS, V/s
