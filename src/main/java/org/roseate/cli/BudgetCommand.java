@@ -13,6 +13,7 @@ import java.util.concurrent.Callable;
 import org.roseate.bands.BandFraction;
 import org.roseate.budget.BudgetResult;
 import org.roseate.budget.NoiseBudget;
+import org.roseate.budget.SourceFit;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DesignReader;
 import org.roseate.compare.FrequencyRange;
@@ -60,8 +61,22 @@ final class BudgetCommand implements Callable<Integer> {
     @Option(names = "--force", description = "replace an existing plot file")
     boolean force;
 
+    @Option(names = "--source-capture", paramLabel = "SOURCE.wav", description = "a capture of the bare noise source: "
+            + "d and the 1/f corner are fitted to its density and replace the design's \"source\"")
+    Path sourceCapture;
+
+    @Option(names = "--volts-per-fs", paramLabel = "V", description = "with --source-capture: volts at the capture's full scale")
+    Double voltsPerFs;
+
+    @Option(names = "--calibration", paramLabel = "cal.json", description = "with --source-capture: a calibration made by "
+            + "'measure --save-calibration' (its volts per full scale, and its loopback response divided out)")
+    Path calibration;
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
+
+    /** The source fitted to --source-capture, or null. */
+    private SourceFit.Result fit;
 
     @Override
     public Integer call() {
@@ -69,7 +84,17 @@ final class BudgetCommand implements Callable<Integer> {
         BandFraction fraction = BandOptions.fraction(bands);
         double[] points = freqs == null ? LogGrid.points(r.loHz(), r.hiHz(), 10) : Inputs.frequencies(freqs, "--freqs");
         CompareCommand.checkPlotName(plot);
+        if (sourceCapture == null && (voltsPerFs != null || calibration != null)) {
+            throw new UserInputException((voltsPerFs != null ? "--volts-per-fs" : "--calibration")
+                    + " needs --source-capture: it scales the capture of the bare source");
+        }
         Design design = DesignReader.read(file);
+        SourceFit.Result fitted = null;
+        if (sourceCapture != null) {
+            fitted = SourceCapture.fit(sourceCapture, voltsPerFs, calibration, spec.commandLine().getErr());
+            design = design.withSource(java.util.Optional.of(fitted.source()), design.temperatureC());
+        }
+        this.fit = fitted;
         NoiseBudget budget = NoiseBudget.of(design, file.getFileName().toString());
         BudgetResult res = budget.compute(r.loHz(), r.hiHz(), points, fraction);
         if (!(res.outputRmsV() > 0)) {
@@ -78,7 +103,7 @@ final class BudgetCommand implements Callable<Integer> {
         }
         PrintWriter out = spec.commandLine().getOut();
         switch (format) {
-            case json -> out.print(json(design, res));
+            case json -> out.print(json(design, res, fit, sourceCapture));
             case csv -> out.print(freqs == null ? bandsCsv(res) : densityCsv(res));
             default -> out.print(table(design, res));
         }
@@ -94,8 +119,12 @@ final class BudgetCommand implements Callable<Integer> {
         sb.append("Design: ").append(d.name()).append(" (").append(file.getFileName()).append(")\n");
         sb.append(Numbers.f("Range: %s – %s, %d-point quadrature; temperature %.1f °C%n", Numbers.hz(r.loHz()),
                 Numbers.hz(r.hiHz()), r.quadratureNodes(), r.temperatureC()));
-        sb.append(d.source().map(s -> Numbers.f("Source: %s V/√Hz, 1/f corner %s Hz%n", volts(s.densityVPerRtHz()),
-                Numbers.plain(s.flickerCornerHz()))).orElse("Source: none in the design file (circuit's own noise only)\n"));
+        if (fit != null) {
+            sb.append(SourceCapture.describe(sourceCapture, fit)).append('\n');
+        } else {
+            sb.append(d.source().map(s -> Numbers.f("Source: %s V/√Hz, 1/f corner %s Hz%n", volts(s.densityVPerRtHz()),
+                    Numbers.plain(s.flickerCornerHz()))).orElse("Source: none in the design file (circuit's own noise only)\n"));
+        }
         sb.append('\n');
         sb.append(Numbers.f("Output RMS:        %s V%n", volts(r.outputRmsV())));
         if (r.hasSource()) {
@@ -154,6 +183,10 @@ final class BudgetCommand implements Callable<Integer> {
     }
 
     static String json(Design d, BudgetResult r) {
+        return json(d, r, null, null);
+    }
+
+    static String json(Design d, BudgetResult r, SourceFit.Result fit, Path capture) {
         ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
         ObjectNode root = m.createObjectNode();
         root.put("name", d.name());
@@ -161,6 +194,16 @@ final class BudgetCommand implements Callable<Integer> {
         range.add(r.loHz());
         range.add(r.hiHz());
         root.put("temperatureC", r.temperatureC());
+        if (fit != null) {
+            ObjectNode f = root.putObject("sourceFit");
+            f.put("capture", capture.getFileName().toString());
+            f.put("densityVPerRtHz", fit.densityVPerRtHz());
+            f.put("densitySigma", fit.densitySigma());
+            f.put("flickerCornerHz", fit.flickerCornerHz());
+            f.put("flickerCornerSigmaHz", fit.cornerSigmaHz());
+            f.put("bands", fit.bands());
+            f.put("chiSquarePerDof", fit.chiSquarePerDof());
+        }
         root.put("quadratureNodes", r.quadratureNodes());
         root.put("outputRmsV", r.outputRmsV());
         if (r.hasSource()) {

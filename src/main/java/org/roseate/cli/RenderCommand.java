@@ -15,6 +15,8 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.roseate.circuit.Design;
+import org.roseate.circuit.DesignReader;
 import org.roseate.digital.UnrenderableModelException;
 import org.roseate.io.AtomicOutput;
 import org.roseate.io.CsvWriter;
@@ -34,7 +36,9 @@ import picocli.CommandLine.Spec;
 /** {@code render DESIGN.json -o out.wav}: the design's noise to a file, streaming. */
 @Command(name = "render", mixinStandardHelpOptions = true,
         description = {"Render white noise through the design's digital model to a WAV file (or, at control rates, "
-                + "WAV or CSV). Memory stays constant whatever the duration; the file appears only when complete."})
+                + "WAV or CSV). A design with a \"source\" renders its real output in volts: the source and the circuit's "
+                + "own noise (CSV of volts at control rates; --volts-per-fs maps volts to a WAV). Memory stays constant "
+                + "whatever the duration; the file appears only when complete."})
 final class RenderCommand implements Callable<Integer> {
     static final int[] AUDIO_RATES = {44100, 48000, 96000, 192000};
 
@@ -86,6 +90,17 @@ final class RenderCommand implements Callable<Integer> {
     @Option(names = "--force", description = "replace an existing output file")
     boolean force;
 
+    @Option(names = "--source-capture", paramLabel = "SOURCE.wav", description = "a capture of the bare noise source: its d "
+            + "and 1/f corner are fitted (as 'budget --source-capture' does) and replace the design's \"source\"")
+    Path sourceCapture;
+
+    @Option(names = "--source-volts-per-fs", paramLabel = "V", description = "with --source-capture: volts at the capture's full scale")
+    Double sourceVoltsPerFs;
+
+    @Option(names = "--source-calibration", paramLabel = "cal.json", description = "with --source-capture: a calibration from "
+            + "'measure --save-calibration' that carries the capture's volts per full scale")
+    Path sourceCalibration;
+
     @Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
@@ -117,10 +132,6 @@ final class RenderCommand implements Callable<Integer> {
         if (control && parsed != null && parsed.hasMatchedOption("--rate")) {
             throw new UserInputException("--rate and --control-rate both given: use --rate for audio files (44100 to 192000 Hz)"
                     + " or --control-rate for slow control voltages (100 to 4000 Hz), not both");
-        }
-        if (voltsPerFs != null && !control) {
-            throw new UserInputException("--volts-per-fs has no meaning without --control-rate: it scales the CSV values and"
-                    + " statistics of control-rate renders; audio files are written at full scale");
         }
         double rateHz = checkRate(control);
         if (!(seconds > 0) || seconds > 24 * 3600) {
@@ -156,9 +167,41 @@ final class RenderCommand implements Callable<Integer> {
         if (source == Source.design && design == null) {
             throw new UserInputException("render: name a design file, or use --source white or --source ideal-pink");
         }
+        if (sourceCapture == null && (sourceVoltsPerFs != null || sourceCalibration != null)) {
+            throw new UserInputException((sourceVoltsPerFs != null ? "--source-volts-per-fs" : "--source-calibration")
+                    + " needs --source-capture: it scales the capture of the bare source");
+        }
+        if (sourceCapture != null && source != Source.design) {
+            throw new UserInputException("--source-capture needs --source design: it replaces a design's \"source\"");
+        }
+        Design sourced = null;
+        if (source == Source.design) {
+            Design d = DesignReader.read(design);
+            if (sourceCapture != null) {
+                org.roseate.budget.SourceFit.Result fit = SourceCapture.fit(sourceCapture, sourceVoltsPerFs, sourceCalibration,
+                        err, "--source-volts-per-fs", "--source-calibration");
+                d = d.withSource(java.util.Optional.of(fit.source()), d.temperatureC());
+                if (format == Format.table) {
+                    out.println(SourceCapture.describe(sourceCapture, fit));
+                }
+            }
+            if (d.source().isPresent()) {
+                sourced = d;
+            }
+        }
+        if (voltsPerFs != null && !control && sourced == null) {
+            throw new UserInputException("--volts-per-fs at audio rates needs a design with a \"source\" (then the file holds"
+                    + " its output in volts); without one the noise has no voltage, and audio files are written at --level");
+        }
+        if (sourced != null) {
+            checkVoltsOptions(control, csv, parsed, rateHz);
+        }
         if (!force && Files.exists(output, LinkOption.NOFOLLOW_LINKS)) {
             // Checked before any work; AtomicOutput checks again when it commits.
             throw new UserInputException(new OutputExistsException(output).getMessage());
+        }
+        if (sourced != null) {
+            return new VoltsOutput(this, sourced, rateHz, frames, control, csv, encoding, out, err).run();
         }
         ChainSettings settings = new ChainSettings(rateHz, channels, identical, seed, levelDbfs, dist, softLimit);
         NoiseChain chain = chain(settings);
@@ -233,7 +276,46 @@ final class RenderCommand implements Callable<Integer> {
         }
     }
 
-    private static final double[] PERCENTILES = {0.1, 1, 5, 25, 50, 75, 95, 99, 99.9};
+    /**
+     * The options a design with a source takes: its output is volts, so at control rates --level does
+     * not apply; the input noise is the source's own (Gaussian), and nothing may bend the volts.
+     */
+    private void checkVoltsOptions(boolean control, boolean csv, picocli.CommandLine.ParseResult parsed, double rateHz) {
+        boolean levelGiven = parsed != null && parsed.hasMatchedOption("--level");
+        if (control && levelGiven) {
+            throw new UserInputException("--level does not apply: " + design.getFileName() + " has a \"source\", so a"
+                    + " control-rate render holds the circuit's real output in volts (its level is what 'roseate budget'"
+                    + " reports, not a choice); leave out --level");
+        }
+        if (voltsPerFs != null && levelGiven) {
+            throw new UserInputException("--level and --volts-per-fs both given: with --volts-per-fs the file holds the"
+                    + " circuit's output in volts, whose level is set by the source, not by --level");
+        }
+        if (csv && voltsPerFs != null) {
+            throw new UserInputException("--volts-per-fs has no meaning here: " + design.getFileName() + " has a \"source\","
+                    + " so the CSV holds volts already");
+        }
+        if (control && !csv && voltsPerFs == null) {
+            throw new UserInputException("--volts-per-fs is needed: " + design.getFileName() + " has a \"source\", so a"
+                    + " control-rate WAV holds volts and needs the volts at full scale (or write a .csv, which holds volts)");
+        }
+        if (!distribution.equalsIgnoreCase("gaussian") && !distribution.equalsIgnoreCase("normal")) {
+            throw new UserInputException("--distribution " + distribution + " does not apply: " + design.getFileName()
+                    + " has a \"source\", whose noise is Gaussian");
+        }
+        if (softLimit) {
+            throw new UserInputException("--soft-limit does not apply: " + design.getFileName() + " has a \"source\", and"
+                    + " its output is rendered in volts unbent");
+        }
+        double min = org.roseate.budget.VoltsRender.minimumSeconds(rateHz);
+        if (seconds < min) {
+            throw new UserInputException(Numbers.f("--seconds: %s s is too short for a design with a \"source\" at %.0f Hz:"
+                    + " the render's band runs from 1/T to %s, and needs at least %.3g s to span a decade",
+                    Double.toString(seconds), rateHz, Numbers.hz(org.roseate.digital.Decimator.audioPassbandEdgeHz(rateHz)), min));
+        }
+    }
+
+    static final double[] PERCENTILES = {0.1, 1, 5, 25, 50, 75, 95, 99, 99.9};
 
     private double checkRate(boolean control) {
         if (control) {

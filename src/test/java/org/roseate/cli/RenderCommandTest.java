@@ -103,7 +103,9 @@ class RenderCommandTest {
     @Test
     void controlRateCsvWithStatistics() throws Exception {
         Path out = dir.resolve("cv.csv");
-        var r = AnalyzeCommandTest.run("render", "presets/random-voltage.json", "--control-rate", "100", "-o", out.toString(),
+        // the preset without its "source": a relative render at --level, scaled by --volts-per-fs
+        Path design = RenderVoltsCommandTest.withoutSource(dir);
+        var r = AnalyzeCommandTest.run("render", design.toString(), "--control-rate", "100", "-o", out.toString(),
                 "--seconds", "30", "--level", "-12", "--volts-per-fs", "5");
         assertEquals(0, r.status(), r.err());
         List<String> lines = Files.readAllLines(out);
@@ -112,7 +114,7 @@ class RenderCommandTest {
         assertTrue(lines.get(2).startsWith("0.01,"), lines.get(2));
         assertTrue(r.out().contains("Percentiles:") && r.out().contains("50%:") && r.out().contains(" V"), r.out());
         // A control-rate WAV works too.
-        assertEquals(0, AnalyzeCommandTest.run("render", "presets/random-voltage.json", "--control-rate", "250", "-o",
+        assertEquals(0, AnalyzeCommandTest.run("render", design.toString(), "--control-rate", "250", "-o",
                 dir.resolve("cv.wav").toString(), "--seconds", "5").status());
     }
 
@@ -163,13 +165,16 @@ class RenderCommandTest {
         assertFalse(Files.exists(out));
     }
 
-    /** Issue 15: --volts-per-fs means something only at control rates; at audio rates it is refused. */
+    /**
+     * Issue 15: at audio rates --volts-per-fs is refused for what has no voltage (white noise, a design
+     * without a "source"); issue 13 made it map volts for a design with one (RenderVoltsCommandTest).
+     */
     @Test
     void voltsPerFullScaleWithoutControlRateIsRefused() {
         Path out = dir.resolve("a.wav");
         var r = AnalyzeCommandTest.run("render", "--source", "white", "-o", out.toString(), "--volts-per-fs", "5");
         assertEquals(2, r.status());
-        assertTrue(r.err().startsWith("roseate: --volts-per-fs has no meaning without --control-rate"), r.err());
+        assertTrue(r.err().startsWith("roseate: --volts-per-fs at audio rates needs a design with a \"source\""), r.err());
         assertFalse(Files.exists(out));
     }
 

@@ -120,6 +120,20 @@ class BadInputCatalogueTest {
         row("argument", "render --seconds 0", 2, false, "--seconds: expected a duration from 0 to 86400 s, found 0.0", "render", "@good.json", "-o", "@r5.wav", "--seconds", "0");
         row("argument", "render to an existing file without --force", 2, false, "exists.wav", "render", "@good.json", "-o", "@exists.wav", "--seconds", "0.1");
         row("argument", "render -o out.mp3", 2, false, "-o out.mp3: expected a .wav file", "render", "@good.json", "-o", "@out.mp3");
+        // budget and render in volts (issue 13)
+        row("budget", "source with a negative density", 2, false, "badsource.json: ", "budget", "@badsource.json");
+        row("budget", "budget --range below the tabulated bands", 2, false, "--range: 0.1-45 reaches beyond the analysable range", "budget", "@good.json", "--range", "0.1-45");
+        row("budget", "--volts-per-fs without --source-capture", 2, false, "--volts-per-fs needs --source-capture", "budget", "@good.json", "--volts-per-fs", "1");
+        row("budget", "--source-capture without volts", 2, false, "--source-capture needs volts: give --volts-per-fs V", "budget", "@good.json", "--source-capture", "@ok.wav");
+        row("budget", "--source-capture that does not exist", 2, false, "nope.wav: no such file", "budget", "@good.json", "--source-capture", "@nope.wav", "--volts-per-fs", "1");
+        row("budget", "--source-capture too short", 2, false, "ok.wav: the capture is 1.00 s; the source fit reads third-octave bands down to 10 Hz", "budget", "@good.json", "--source-capture", "@ok.wav", "--volts-per-fs", "1");
+        row("budget", "--source-capture of silence", 2, false, "silent.wav: no signal: channel 1 is all zero", "budget", "@good.json", "--source-capture", "@silent.wav", "--volts-per-fs", "1");
+        row("budget", "render a design with a source at a control rate with --level", 2, false, "--level does not apply: sourced.json has a \"source\"", "render", "@sourced.json", "--control-rate", "100", "-o", "@v1.csv", "--level", "-12");
+        row("budget", "render volts that would pass full scale", 2, false, "--volts-per-fs 0.000001: the output's expected RMS is", "render", "@sourced.json", "-o", "@v2.wav", "--seconds", "1", "--volts-per-fs", "1e-6");
+        row("budget", "render --volts-per-fs at an audio rate without a source", 2, false, "--volts-per-fs at audio rates needs a design with a \"source\"", "render", "@good.json", "-o", "@v3.wav", "--volts-per-fs", "1");
+        row("budget", "render a control-rate WAV of a design with a source without --volts-per-fs", 2, false, "--volts-per-fs is needed: sourced.json has a \"source\"", "render", "@sourced.json", "--control-rate", "100", "-o", "@v4.wav", "--seconds", "60");
+        row("budget", "render a design with a source for too short a time", 2, false, "--seconds: 0.05 s is too short for a design with a \"source\"", "render", "@sourced.json", "--control-rate", "100", "-o", "@v5.csv", "--seconds", "0.05");
+        row("budget", "render --source-volts-per-fs without --source-capture", 2, false, "--source-volts-per-fs needs --source-capture", "render", "@sourced.json", "-o", "@v6.wav", "--source-volts-per-fs", "1");
         row("argument", "analyze --range 20k-20", 2, false, "--range:", "analyze", "@good.json", "--range", "20k-20");
         row("argument", "analyze --range abc", 2, false, "--range:", "analyze", "@good.json", "--range", "abc");
         row("argument", "analyze --bands fifth", 2, false, "--bands: expected octave or third, found 'fifth'", "analyze", "@good.json", "--bands", "fifth");
@@ -139,6 +153,11 @@ class BadInputCatalogueTest {
     @BeforeAll
     static void writeInputs() throws IOException {
         design("good.json", String.format(STAGE, "R2(100k) || C1(10n)"));
+        write("sourced.json", "{\"name\": \"n\", \"source\": {\"densityVPerRtHz\": 150e-6, \"flickerCornerHz\": 100}, \"stages\": "
+                + "[{\"kind\": \"inverting\", \"input\": \"R1(10k)\", \"feedback\": \"R2(100k) || C1(10n)\"}]}");
+        write("badsource.json", "{\"name\": \"n\", \"source\": {\"densityVPerRtHz\": -1}, \"stages\": "
+                + "[{\"kind\": \"inverting\", \"input\": \"R1(10k)\", \"feedback\": \"R2(100k)\"}]}");
+        Files.write(dir.resolve("silent.wav"), wav(1, 1, 24, 8000, 30 * 8000));
         write("bad-json.json", "{\"name\": \"n\", \"stages\": [");
         write("empty.json", "");
         write("list.json", "[1, 2]");
