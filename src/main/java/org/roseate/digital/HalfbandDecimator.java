@@ -230,8 +230,8 @@ public final class HalfbandDecimator {
      * result of scipy.signal.upfirdn(h, x, down=2)). Allocation-free; one thread at a time.
      *
      * <p>Each output is summed in one fixed order: the centre tap's product, then for j = 0..K−1 the
-     * product of h[2j+1] with the pair x[i−(2j+1)] + x[i−(4K−2j−1)]. Four outputs are summed side by side
-     * (each in that order), so four addition chains are in flight instead of one; the result is bitwise
+     * product of h[2j+1] with the pair x[i−(2j+1)] + x[i−(4K−2j−1)]. Eight outputs are summed side by side
+     * (each in that order), so eight addition chains are in flight instead of one; the result is bitwise
      * that of one output at a time, for any split of the input into calls.
      */
     public static final class Runtime {
@@ -298,15 +298,23 @@ public final class HalfbandDecimator {
             final int c = 2 * k;
             final int last = 4 * k;
             int m = 0;
-            for (; m + 3 < count; m += 4) {
+            for (; m + 7 < count; m += 8) {
                 int p0 = q + 2 * m;
                 int p1 = p0 + 2;
                 int p2 = p0 + 4;
                 int p3 = p0 + 6;
+                int p4 = p0 + 8;
+                int p5 = p0 + 10;
+                int p6 = p0 + 12;
+                int p7 = p0 + 14;
                 double acc0 = centre * x[p0 - c];
                 double acc1 = centre * x[p1 - c];
                 double acc2 = centre * x[p2 - c];
                 double acc3 = centre * x[p3 - c];
+                double acc4 = centre * x[p4 - c];
+                double acc5 = centre * x[p5 - c];
+                double acc6 = centre * x[p6 - c];
+                double acc7 = centre * x[p7 - c];
                 for (int j = 0; j < k; j++) {
                     double h = odd[j];
                     int near = 2 * j + 1;
@@ -315,11 +323,19 @@ public final class HalfbandDecimator {
                     acc1 += h * (x[p1 - near] + x[p1 - far]);
                     acc2 += h * (x[p2 - near] + x[p2 - far]);
                     acc3 += h * (x[p3 - near] + x[p3 - far]);
+                    acc4 += h * (x[p4 - near] + x[p4 - far]);
+                    acc5 += h * (x[p5 - near] + x[p5 - far]);
+                    acc6 += h * (x[p6 - near] + x[p6 - far]);
+                    acc7 += h * (x[p7 - near] + x[p7 - far]);
                 }
-                out[o + m] = acc0;
+                out[o + m + 0] = acc0;
                 out[o + m + 1] = acc1;
                 out[o + m + 2] = acc2;
                 out[o + m + 3] = acc3;
+                out[o + m + 4] = acc4;
+                out[o + m + 5] = acc5;
+                out[o + m + 6] = acc6;
+                out[o + m + 7] = acc7;
             }
             for (; m < count; m++) {
                 int p = q + 2 * m;

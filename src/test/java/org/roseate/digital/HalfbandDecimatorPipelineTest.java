@@ -7,7 +7,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 
 /**
- * {@link HalfbandDecimator.Runtime} sums four outputs side by side through a linear work buffer. These
+ * {@link HalfbandDecimator.Runtime} sums eight outputs side by side through a linear work buffer. These
  * tests hold it bit for bit to the plain definition it documents, one output at a time: output m is
  * h_c·x[2m − 2K] + Σ_j h[2j+1]·(x[2m − 2j − 1] + x[2m − 4K + 2j + 1]), summed in that order, with x = 0
  * before the first input (the direct form of scipy.signal.upfirdn(h, x, down=2); HalfbandDecimatorTest
