@@ -16,8 +16,9 @@ import java.util.List;
  * range (where arithmetic is slow on many CPUs). The change is below 1e-200 relative to full scale, far
  * under any audible or measurable level.
  *
- * <p>Speed: the sections run four at a time, section j of a group {@code j} samples behind the first,
- * so four recursions (each bound by the latency of its multiply–add chain) are in flight together;
+ * <p>Speed: the sections run in groups of eight (then four, two and one for the rest), section j of a
+ * group {@code j} samples behind the first, so up to eight recursions (each bound by the latency of its
+ * multiply–add chain) are in flight together;
  * the guard is applied inside that loop, to each section at its own point, so the loop is never cut.
  * Every section still does the same operations in the same order on the same values as the plain
  * one-section-at-a-time recursion, so the output is bitwise that recursion's ({@code SosFilterPipelineTest}).
@@ -117,8 +118,12 @@ public final class SosFilter {
             return;
         }
         int k = 0;
-        for (; k + 3 < n; k += 4) {
+        for (; k + 7 < n; k += 8) {
+            runEight(k, buf, from, count);
+        }
+        if (k + 3 < n) {
             runFour(k, buf, from, count);
+            k += 4;
         }
         if (k + 1 < n) {
             runTwo(k, buf, from, count);
@@ -220,6 +225,202 @@ public final class SosFilter {
         s2[k + 1] = w2;
         buf[end - 1] = prev;
         runOne(k + 1, buf, end - 1, end, (phase + count - 1) & PHASE_MASK);
+    }
+
+    /**
+     * Sections k..k+7 over {@code buf[from..from+count)}, section k+j running j samples behind section k
+     * (eight recursions in flight; as {@link #runFour}, which documents the scheme).
+     */
+    private void runEight(int k, double[] buf, int from, int count) {
+        int end = from + count;
+        if (count < 8) {
+            for (int j = 0; j < 8; j++) {
+                runOne(k + j, buf, from, end, phase);
+            }
+            return;
+        }
+        runOne(k + 0, buf, from, from + 7, phase);
+        runOne(k + 1, buf, from, from + 6, phase);
+        runOne(k + 2, buf, from, from + 5, phase);
+        runOne(k + 3, buf, from, from + 4, phase);
+        runOne(k + 4, buf, from, from + 3, phase);
+        runOne(k + 5, buf, from, from + 2, phase);
+        runOne(k + 6, buf, from, from + 1, phase);
+        double b0_0 = b0[k + 0];
+        double b1_0 = b1[k + 0];
+        double b2_0 = b2[k + 0];
+        double d1_0 = a1[k + 0];
+        double d2_0 = a2[k + 0];
+        double z1_0 = s1[k + 0];
+        double z2_0 = s2[k + 0];
+        double b0_1 = b0[k + 1];
+        double b1_1 = b1[k + 1];
+        double b2_1 = b2[k + 1];
+        double d1_1 = a1[k + 1];
+        double d2_1 = a2[k + 1];
+        double z1_1 = s1[k + 1];
+        double z2_1 = s2[k + 1];
+        double b0_2 = b0[k + 2];
+        double b1_2 = b1[k + 2];
+        double b2_2 = b2[k + 2];
+        double d1_2 = a1[k + 2];
+        double d2_2 = a2[k + 2];
+        double z1_2 = s1[k + 2];
+        double z2_2 = s2[k + 2];
+        double b0_3 = b0[k + 3];
+        double b1_3 = b1[k + 3];
+        double b2_3 = b2[k + 3];
+        double d1_3 = a1[k + 3];
+        double d2_3 = a2[k + 3];
+        double z1_3 = s1[k + 3];
+        double z2_3 = s2[k + 3];
+        double b0_4 = b0[k + 4];
+        double b1_4 = b1[k + 4];
+        double b2_4 = b2[k + 4];
+        double d1_4 = a1[k + 4];
+        double d2_4 = a2[k + 4];
+        double z1_4 = s1[k + 4];
+        double z2_4 = s2[k + 4];
+        double b0_5 = b0[k + 5];
+        double b1_5 = b1[k + 5];
+        double b2_5 = b2[k + 5];
+        double d1_5 = a1[k + 5];
+        double d2_5 = a2[k + 5];
+        double z1_5 = s1[k + 5];
+        double z2_5 = s2[k + 5];
+        double b0_6 = b0[k + 6];
+        double b1_6 = b1[k + 6];
+        double b2_6 = b2[k + 6];
+        double d1_6 = a1[k + 6];
+        double d2_6 = a2[k + 6];
+        double z1_6 = s1[k + 6];
+        double z2_6 = s2[k + 6];
+        double b0_7 = b0[k + 7];
+        double b1_7 = b1[k + 7];
+        double b2_7 = b2[k + 7];
+        double d1_7 = a1[k + 7];
+        double d2_7 = a2[k + 7];
+        double z1_7 = s1[k + 7];
+        double z2_7 = s2[k + 7];
+        double p0 = buf[from + 6];
+        double p1 = buf[from + 5];
+        double p2 = buf[from + 4];
+        double p3 = buf[from + 3];
+        double p4 = buf[from + 2];
+        double p5 = buf[from + 1];
+        double p6 = buf[from + 0];
+        int ph = (phase + 7) & PHASE_MASK;
+        int i = from + 7;
+        while (i < end) {
+            int next = (ph + 1) & PHASE_MASK;
+            int toGuard = next < 8 ? 1 : FLUSH_INTERVAL - next + 1;
+            int stop = end - i > toGuard ? i + toGuard : end;
+            boolean guardDue = stop - i == toGuard;
+            for (; i < stop; i++) {
+                double x = buf[i];
+                double y0 = b0_0 * x + z1_0;
+                z1_0 = b1_0 * x - d1_0 * y0 + z2_0;
+                z2_0 = b2_0 * x - d2_0 * y0;
+                double y1 = b0_1 * p0 + z1_1;
+                z1_1 = b1_1 * p0 - d1_1 * y1 + z2_1;
+                z2_1 = b2_1 * p0 - d2_1 * y1;
+                double y2 = b0_2 * p1 + z1_2;
+                z1_2 = b1_2 * p1 - d1_2 * y2 + z2_2;
+                z2_2 = b2_2 * p1 - d2_2 * y2;
+                double y3 = b0_3 * p2 + z1_3;
+                z1_3 = b1_3 * p2 - d1_3 * y3 + z2_3;
+                z2_3 = b2_3 * p2 - d2_3 * y3;
+                double y4 = b0_4 * p3 + z1_4;
+                z1_4 = b1_4 * p3 - d1_4 * y4 + z2_4;
+                z2_4 = b2_4 * p3 - d2_4 * y4;
+                double y5 = b0_5 * p4 + z1_5;
+                z1_5 = b1_5 * p4 - d1_5 * y5 + z2_5;
+                z2_5 = b2_5 * p4 - d2_5 * y5;
+                double y6 = b0_6 * p5 + z1_6;
+                z1_6 = b1_6 * p5 - d1_6 * y6 + z2_6;
+                z2_6 = b2_6 * p5 - d2_6 * y6;
+                double y7 = b0_7 * p6 + z1_7;
+                z1_7 = b1_7 * p6 - d1_7 * y7 + z2_7;
+                z2_7 = b2_7 * p6 - d2_7 * y7;
+                buf[i - 7] = y7;
+                p6 = y6;
+                p5 = y5;
+                p4 = y4;
+                p3 = y3;
+                p2 = y2;
+                p1 = y1;
+                p0 = y0;
+            }
+            if (!guardDue) {
+                break;
+            }
+            ph = (ph + toGuard) & PHASE_MASK;
+            switch (ph) {
+                case 0 -> {
+                    z1_0 = guarded(z1_0);
+                    z2_0 = guarded(z2_0);
+                }
+                case 1 -> {
+                    z1_1 = guarded(z1_1);
+                    z2_1 = guarded(z2_1);
+                }
+                case 2 -> {
+                    z1_2 = guarded(z1_2);
+                    z2_2 = guarded(z2_2);
+                }
+                case 3 -> {
+                    z1_3 = guarded(z1_3);
+                    z2_3 = guarded(z2_3);
+                }
+                case 4 -> {
+                    z1_4 = guarded(z1_4);
+                    z2_4 = guarded(z2_4);
+                }
+                case 5 -> {
+                    z1_5 = guarded(z1_5);
+                    z2_5 = guarded(z2_5);
+                }
+                case 6 -> {
+                    z1_6 = guarded(z1_6);
+                    z2_6 = guarded(z2_6);
+                }
+                case 7 -> {
+                    z1_7 = guarded(z1_7);
+                    z2_7 = guarded(z2_7);
+                }
+                default -> throw new IllegalStateException("guard phase " + ph);
+            }
+        }
+        s1[k + 0] = z1_0;
+        s2[k + 0] = z2_0;
+        s1[k + 1] = z1_1;
+        s2[k + 1] = z2_1;
+        s1[k + 2] = z1_2;
+        s2[k + 2] = z2_2;
+        s1[k + 3] = z1_3;
+        s2[k + 3] = z2_3;
+        s1[k + 4] = z1_4;
+        s2[k + 4] = z2_4;
+        s1[k + 5] = z1_5;
+        s2[k + 5] = z2_5;
+        s1[k + 6] = z1_6;
+        s2[k + 6] = z2_6;
+        s1[k + 7] = z1_7;
+        s2[k + 7] = z2_7;
+        buf[end - 1] = p0;
+        buf[end - 2] = p1;
+        buf[end - 3] = p2;
+        buf[end - 4] = p3;
+        buf[end - 5] = p4;
+        buf[end - 6] = p5;
+        buf[end - 7] = p6;
+        runOne(k + 1, buf, end - 1, end, (phase + count - 1) & PHASE_MASK);
+        runOne(k + 2, buf, end - 2, end, (phase + count - 2) & PHASE_MASK);
+        runOne(k + 3, buf, end - 3, end, (phase + count - 3) & PHASE_MASK);
+        runOne(k + 4, buf, end - 4, end, (phase + count - 4) & PHASE_MASK);
+        runOne(k + 5, buf, end - 5, end, (phase + count - 5) & PHASE_MASK);
+        runOne(k + 6, buf, end - 6, end, (phase + count - 6) & PHASE_MASK);
+        runOne(k + 7, buf, end - 7, end, (phase + count - 7) & PHASE_MASK);
     }
 
     /**
