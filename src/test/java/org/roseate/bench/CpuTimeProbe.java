@@ -8,7 +8,8 @@ import java.util.function.DoubleSupplier;
  * Thread CPU time of the benchmark bodies, for a shared machine where JMH's wall-clock scores mostly
  * measure the wait for a core: each body is run warm, then timed with
  * {@link ThreadMXBean#getCurrentThreadCpuTime()} (which counts only this thread's time on a core) and
- * the best of the repeats is printed. JMH stays the reference method; this is the load-independent
+ * the best of the repeats is printed. The warm-up is long (100 calls of the chain bodies) because on a
+ * loaded machine the compiler threads wait for a core too, and a short warm-up times interpreted code. JMH stays the reference method; this is the load-independent
  * figure beside it. Usage: {@code java -cp ... org.roseate.bench.CpuTimeProbe [dataDir [cascade,chain,live]]}
  * (each benchmark is best run in its own JVM, so that one does not shape the compiled code of the next).
  */
@@ -56,7 +57,7 @@ public final class CpuTimeProbe {
         SosCascadeBench cascade = new SosCascadeBench();
         cascade.dataDir = dataDir;
         cascade.setup();
-        double cascadeMs = bestCpuMs(() -> cascade.cascade()[0], 20, 15, 3);
+        double cascadeMs = bestCpuMs(() -> cascade.cascade()[0], 60, 30, 1);
         System.out.printf("SosCascadeBench.cascade: %.2f ms CPU per 2^20 samples = %.1f section-samples/us%n",
                 cascadeMs, 8.0 * BenchData.SIGNAL_SAMPLES / (cascadeMs * 1e3));
     }
@@ -65,7 +66,7 @@ public final class CpuTimeProbe {
         ChainBench chain = new ChainBench();
         chain.design = "eight-sections";
         chain.setup();
-        double chainMs = bestCpuMs(chain::oneSecondStereo, 20, 15, 2);
+        double chainMs = bestCpuMs(chain::oneSecondStereo, 100, 40, 1);
         System.out.printf("ChainBench.oneSecondStereo[eight-sections]: %.2f ms CPU per second of audio = %.2f %% of one core%n",
                 chainMs, chainMs / 10);
     }
@@ -73,7 +74,7 @@ public final class CpuTimeProbe {
     private static void live() {
         LiveChainBench live = new LiveChainBench();
         live.setup();
-        double liveMs = bestCpuMs(live::eightSectionsWithLiveAnalyzer, 20, 15, 2);
+        double liveMs = bestCpuMs(live::eightSectionsWithLiveAnalyzer, 100, 40, 1);
         System.out.printf("LiveChainBench.eightSectionsWithLiveAnalyzer: %.2f ms CPU per second of audio = %.2f %% of one core%n",
                 liveMs, liveMs / 10);
     }
