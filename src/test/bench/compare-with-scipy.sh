@@ -3,7 +3,8 @@
 #   1. builds (test classes, the fat jar, target/cp.txt with the test classpath);
 #   2. BenchData writes the shared data once: a seeded float64 signal and the eight sections;
 #   3. JMH runs the Java benchmarks (org.roseate.bench) on that data, results to target/jmh.json;
-#   4. compare_with_scipy.py times scipy.signal.sosfilt / welch on the same files and prints ratios;
+#   4. CpuTimeProbe gives the thread CPU time of the cascade and chain bodies (load-independent), and
+#      compare_with_scipy.py times scipy.signal.sosfilt / welch on the same files and prints ratios;
 #   5. hyperfine times `java -jar target/roseate.jar analyze presets/bench-pink.json` end to end;
 #   6. /usr/bin/time -v compares peak RSS of a 10 s and a 600 s render.
 # usage: src/test/bench/compare-with-scipy.sh [extra JMH options, e.g. -f 1 -wi 2 -i 3]
@@ -22,13 +23,19 @@ DATA=target/bench-data
 echo "== shared data"
 java -cp "$CP" org.roseate.bench.BenchData "$DATA"
 
-echo "== JMH"
+echo "== JMH (load: $(cut -d' ' -f1-3 /proc/loadavg))"
 java -cp "$CP" org.openjdk.jmh.Main 'org.roseate.bench.*' -p dataDir="$DATA" -rf json -rff target/jmh.json "$@" \
   > target/jmh.log 2>&1 || { tail -n 40 target/jmh.log; exit 1; }
 grep -E '^(Benchmark|[A-Za-z]+Bench\.)' target/jmh.log || true
 
+echo "== thread CPU time of the same bodies (CpuTimeProbe, one JVM each; load: $(cut -d' ' -f1-3 /proc/loadavg))"
+: > target/cpu-probe.txt
+for b in cascade chain live; do
+  java -cp "$CP" org.roseate.bench.CpuTimeProbe "$DATA" "$b" | tee -a target/cpu-probe.txt
+done
+
 echo "== scipy on the same data (OPENBLAS_CORETYPE and OPENBLAS_L2_SIZE unset for this command only)"
-env -u OPENBLAS_CORETYPE -u OPENBLAS_L2_SIZE python3 src/test/bench/compare_with_scipy.py "$DATA" target/jmh.json
+env -u OPENBLAS_CORETYPE -u OPENBLAS_L2_SIZE python3 src/test/bench/compare_with_scipy.py "$DATA" target/jmh.json target/cpu-probe.txt
 
 echo "== CLI analyze end to end (JVM start included)"
 if command -v hyperfine >/dev/null; then

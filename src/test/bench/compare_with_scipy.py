@@ -3,7 +3,10 @@
 signal and the same eight sections the JMH benchmarks use) and prints the ratios against the JMH
 scores in a JMH JSON result file.
 
-usage: compare_with_scipy.py DATA_DIR JMH_RESULT.json
+usage: compare_with_scipy.py DATA_DIR JMH_RESULT.json [CPU_PROBE_OUTPUT.txt]
+
+With the output of org.roseate.bench.CpuTimeProbe it also prints the cascade ratio in thread CPU time
+(best of repeats on both sides), the figure that holds up on a loaded machine.
 """
 import json
 import os
@@ -20,10 +23,13 @@ def blas_report():
         import threadpoolctl
     except ImportError:  # Debian's python3-threadpoolctl is pure Python; use it from the system path
         sys.path.append("/usr/lib/python3/dist-packages")
-        import threadpoolctl
+        try:
+            import threadpoolctl
+        except ImportError:  # not installed at all: ask the library itself below
+            threadpoolctl = None
     import numpy.linalg  # noqa: F401  (loads numpy's BLAS so threadpoolctl can see it)
     import scipy.linalg  # noqa: F401
-    info = threadpoolctl.threadpool_info()
+    info = threadpoolctl.threadpool_info() if threadpoolctl else []
     found = "; ".join(f"{i.get('internal_api')} {i.get('version')} {i.get('architecture')} threads={i.get('num_threads')}"
                       for i in info)
     if not found:  # older threadpoolctl does not know numpy 2's scipy_openblas: ask the library itself
@@ -41,6 +47,20 @@ def blas_report():
     return (found or "no BLAS pools found") + f"; OPENBLAS_* in this process: {env or 'none'}"
 
 
+def best_thread_cpu_seconds(fn, repeat=10):
+    """Best-of-repeat thread CPU time (time.thread_time): on a shared machine this leaves out the waits
+    for a core that wall-clock figures include; CpuTimeProbe measures the Java side the same way."""
+    fn()
+    return min(_thread_time(fn) for _ in range(repeat))
+
+
+def _thread_time(fn):
+    import time
+    t0 = time.thread_time()
+    fn()
+    return time.thread_time() - t0
+
+
 def best_seconds(fn, repeat=7):
     fn()  # warm-up
     number = 1
@@ -49,7 +69,7 @@ def best_seconds(fn, repeat=7):
     return min(timeit.repeat(fn, number=number, repeat=repeat)) / number
 
 
-def main(data_dir, jmh_json):
+def main(data_dir, jmh_json, probe_txt=None):
     settings = dict(line.split("=", 1) for line in open(os.path.join(data_dir, "settings.txt")).read().split())
     x = np.fromfile(os.path.join(data_dir, "signal.f64"), dtype="<f8")
     sos = np.loadtxt(os.path.join(data_dir, "sos.txt"), ndmin=2)
@@ -62,6 +82,8 @@ def main(data_dir, jmh_json):
     t_welch = best_seconds(lambda: scipy.signal.welch(x, fs=fs, nperseg=nperseg))
     scipy_section_samples_per_us = len(x) * sections / t_sos / 1e6
     scipy_welch_ms = t_welch * 1e3
+    cpu_sos = best_thread_cpu_seconds(lambda: scipy.signal.sosfilt(sos, x))
+    scipy_cpu_section_samples_per_us = len(x) * sections / cpu_sos / 1e6
 
     scores = {}
     for r in json.load(open(jmh_json)):
@@ -83,6 +105,14 @@ def main(data_dir, jmh_json):
     if cas:
         print(f"{'SOS cascade, section-samples/us (higher wins)':<46}{cas[0]:>14.1f} ±{cas[1]:<4.1f}"
               f"{scipy_section_samples_per_us:>14.1f}{cas[0] / scipy_section_samples_per_us:>9.2f}x")
+    if probe_txt and os.path.exists(probe_txt):
+        import re
+        for line in open(probe_txt):
+            m = re.search(r"SosCascadeBench.cascade: .* = ([0-9.]+) section-samples/us", line)
+            if m:
+                java_cpu = float(m.group(1))
+                print(f"{'SOS cascade, thread CPU time, best of repeats':<46}{java_cpu:>14.1f}      "
+                      f"{scipy_cpu_section_samples_per_us:>14.1f}{java_cpu / scipy_cpu_section_samples_per_us:>9.2f}x")
     w = scores.get("WelchBench.welch")
     if w:
         print(f"{'Welch 2^20 samples + snapshot, ms (lower wins)':<46}{w[0]:>14.2f} ±{w[1]:<4.2f}"
@@ -98,4 +128,4 @@ def main(data_dir, jmh_json):
 
 
 if __name__ == "__main__":
-    main(sys.argv[1], sys.argv[2])
+    main(sys.argv[1], sys.argv[2], sys.argv[3] if len(sys.argv) > 3 else None)

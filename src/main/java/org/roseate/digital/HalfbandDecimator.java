@@ -228,18 +228,26 @@ public final class HalfbandDecimator {
      * Streaming state: consumes any number of input samples per call and emits one output for every
      * second input, counting from construction or {@link #reset()} (output m is Σ h[n]·x[2m − n], the
      * result of scipy.signal.upfirdn(h, x, down=2)). Allocation-free; one thread at a time.
+     *
+     * <p>Each output is summed in one fixed order: the centre tap's product, then for j = 0..K−1 the
+     * product of h[2j+1] with the pair x[i−(2j+1)] + x[i−(4K−2j−1)]. Eight outputs are summed side by side
+     * (each in that order), so eight addition chains are in flight instead of one; the result is bitwise
+     * that of one output at a time, for any split of the input into calls.
      */
     public static final class Runtime {
+        /** Input samples handled per pass through the linear work buffer. */
+        private static final int CHUNK = 1024;
         private final HalfbandDecimator design;
-        private final int len;
-        private final double[] line;
-        private int write;
+        /** 4K: the history an output needs before its newest input. */
+        private final int span;
+        /** work[0..span) holds the last span inputs before the current chunk, then the chunk itself. */
+        private final double[] work;
         private boolean evenPhase = true;
 
         private Runtime(HalfbandDecimator design) {
             this.design = design;
-            this.len = 4 * design.halfLength + 1;
-            this.line = new double[2 * len];
+            this.span = 4 * design.halfLength;
+            this.work = new double[span + CHUNK];
         }
 
         /** The design this state runs. */
@@ -264,38 +272,84 @@ public final class HalfbandDecimator {
                 throw new IllegalArgumentException("outOffset=" + outOffset + " leaves no room for " + maxOut
                         + " samples in output of length " + out.length);
             }
-            double[] d = line;
-            double[] odd = design.oddTaps;
-            int k = design.halfLength;
-            int c = 2 * k;
-            int last = 4 * k;
             int o = outOffset;
-            int w = write;
-            boolean even = evenPhase;
-            for (int i = 0; i < nIn; i++) {
-                double x = in[inOffset + i];
-                d[w] = x;
-                d[w + len] = x;
-                if (even) {
-                    int base = w + len;
-                    double acc = design.centreTap * d[base - c];
-                    for (int j = 0; j < k; j++) {
-                        acc += odd[j] * (d[base - (2 * j + 1)] + d[base - (last - 2 * j - 1)]);
-                    }
-                    out[o++] = acc;
-                }
-                even = !even;
-                w = (w + 1 == len) ? 0 : w + 1;
+            int done = 0;
+            while (done < nIn) {
+                int n = Math.min(CHUNK, nIn - done);
+                System.arraycopy(in, inOffset + done, work, span, n);
+                // outputs fall on the chunk's inputs 0, 2, 4, .. in even phase, 1, 3, .. otherwise
+                int first = evenPhase ? 0 : 1;
+                int count = first < n ? (n - first + 1) / 2 : 0;
+                filter(span + first, count, out, o);
+                o += count;
+                evenPhase = ((n & 1) == 0) == evenPhase;
+                System.arraycopy(work, n, work, 0, span);
+                done += n;
             }
-            write = w;
-            evenPhase = even;
             return o - outOffset;
+        }
+
+        /** Outputs for the newest inputs work[q], work[q+2], .., count of them, into out[o..). */
+        private void filter(int q, int count, double[] out, int o) {
+            final double[] x = work;
+            final double[] odd = design.oddTaps;
+            final double centre = design.centreTap;
+            final int k = design.halfLength;
+            final int c = 2 * k;
+            final int last = 4 * k;
+            int m = 0;
+            for (; m + 7 < count; m += 8) {
+                int p0 = q + 2 * m;
+                int p1 = p0 + 2;
+                int p2 = p0 + 4;
+                int p3 = p0 + 6;
+                int p4 = p0 + 8;
+                int p5 = p0 + 10;
+                int p6 = p0 + 12;
+                int p7 = p0 + 14;
+                double acc0 = centre * x[p0 - c];
+                double acc1 = centre * x[p1 - c];
+                double acc2 = centre * x[p2 - c];
+                double acc3 = centre * x[p3 - c];
+                double acc4 = centre * x[p4 - c];
+                double acc5 = centre * x[p5 - c];
+                double acc6 = centre * x[p6 - c];
+                double acc7 = centre * x[p7 - c];
+                for (int j = 0; j < k; j++) {
+                    double h = odd[j];
+                    int near = 2 * j + 1;
+                    int far = last - 2 * j - 1;
+                    acc0 += h * (x[p0 - near] + x[p0 - far]);
+                    acc1 += h * (x[p1 - near] + x[p1 - far]);
+                    acc2 += h * (x[p2 - near] + x[p2 - far]);
+                    acc3 += h * (x[p3 - near] + x[p3 - far]);
+                    acc4 += h * (x[p4 - near] + x[p4 - far]);
+                    acc5 += h * (x[p5 - near] + x[p5 - far]);
+                    acc6 += h * (x[p6 - near] + x[p6 - far]);
+                    acc7 += h * (x[p7 - near] + x[p7 - far]);
+                }
+                out[o + m + 0] = acc0;
+                out[o + m + 1] = acc1;
+                out[o + m + 2] = acc2;
+                out[o + m + 3] = acc3;
+                out[o + m + 4] = acc4;
+                out[o + m + 5] = acc5;
+                out[o + m + 6] = acc6;
+                out[o + m + 7] = acc7;
+            }
+            for (; m < count; m++) {
+                int p = q + 2 * m;
+                double acc = centre * x[p - c];
+                for (int j = 0; j < k; j++) {
+                    acc += odd[j] * (x[p - (2 * j + 1)] + x[p - (last - 2 * j - 1)]);
+                }
+                out[o + m] = acc;
+            }
         }
 
         /** Clears the history and the phase. */
         public void reset() {
-            java.util.Arrays.fill(line, 0);
-            write = 0;
+            java.util.Arrays.fill(work, 0);
             evenPhase = true;
         }
     }

@@ -40,6 +40,7 @@ final class WelchCore {
     private int n;
     private int hop;
     private int bins;
+    private double[] frequencies;
     private double[] window;
     private double scale;
     private double sumW2;
@@ -96,6 +97,10 @@ final class WelchCore {
         frame = new double[channels][n];
         workX = new double[n];
         workY = channels == 2 ? new double[n] : null;
+        frequencies = new double[bins];
+        for (int b = 0; b < bins; b++) {
+            frequencies[b] = b * sampleRateHz / n;
+        }
         gxx = new double[bins];
         gyy = channels == 2 ? new double[bins] : null;
         gxyRe = channels == 2 ? new double[bins] : null;
@@ -274,12 +279,9 @@ final class WelchCore {
         return channels;
     }
 
+    /** Bin frequencies b·fs/n in Hz, a fresh copy (computed once per prepare: snapshots run often). */
     double[] frequencies() {
-        double[] f = new double[bins];
-        for (int b = 0; b < bins; b++) {
-            f[b] = b * sampleRateHz / n;
-        }
-        return f;
+        return frequencies.clone();
     }
 
     double[] gxx() {
