@@ -2,11 +2,7 @@ package org.roseate.circuit;
 
 import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.core.StreamReadFeature;
-import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.json.JsonMapper;
 import java.io.IOException;
 import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CodingErrorAction;
@@ -39,10 +35,6 @@ public final class DesignReader {
     /** Largest design file accepted; real designs are a few kB. */
     public static final long MAX_FILE_BYTES = 1 << 20;
 
-    private static final ObjectMapper JSON = JsonMapper.builder()
-            .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
-            .enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
-            .build();
     private static final Set<String> TOP_KEYS = Set.of("name", "description", "stages", "tolerance", "source",
             "temperatureC");
     /** The op-amp keys for noise and limits, read by {@link #opAmpNoise}. */
@@ -90,7 +82,7 @@ public final class DesignReader {
     private Design design(String jsonText) {
         JsonNode root;
         try {
-            root = JSON.readTree(jsonText);
+            root = JsonTree.read(jsonText);
         } catch (JsonProcessingException e) {
             JsonLocation at = e.getLocation();
             String where = at == null ? "" : " at line " + at.getLineNr() + ", column " + at.getColumnNr();

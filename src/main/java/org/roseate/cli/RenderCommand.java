@@ -360,17 +360,24 @@ final class RenderCommand implements Callable<Integer> {
             SignalStatistics stats, PrintWriter err) throws IOException {
         WavWriter w = new WavWriter(target.stream(), new WavFormat((int) chain.sampleRateHz(), chain.channels(), encoding),
                 frames, seed ^ 0x5DEECE66DL);
-        double[] buf = new double[BLOCK_FRAMES * chain.channels()];
         Progress progress = new Progress(err, "render");
-        long done = 0;
-        while (done < frames) {
-            int n = (int) Math.min(BLOCK_FRAMES, frames - done);
-            chain.render(buf, n);
-            // The statistics are those of the file: the values after dither, rounding and clipping.
+        int channels = chain.channels();
+        // The statistics are those of the file: the values after dither, rounding and clipping.
+        // Written on a second thread while the next block renders (same blocks, same order).
+        try (WriteBehind writer = new WriteBehind(BLOCK_FRAMES * channels, (buf, n) -> {
             w.writeFrames(buf, n, buf);
-            stats.accept(buf, 0, n * chain.channels());
-            done += n;
-            progress.update((double) done / frames);
+            stats.accept(buf, 0, n * channels);
+        })) {
+            long done = 0;
+            while (done < frames) {
+                int n = (int) Math.min(BLOCK_FRAMES, frames - done);
+                double[] buf = writer.spare();
+                chain.render(buf, n);
+                writer.submit(buf, n);
+                done += n;
+                progress.update((double) done / frames);
+            }
+            writer.finish();
         }
         w.finish();
         progress.done();

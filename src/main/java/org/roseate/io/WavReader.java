@@ -2,7 +2,10 @@ package org.roseate.io;
 
 import java.io.Closeable;
 import java.io.IOException;
+import java.lang.invoke.MethodHandles;
+import java.lang.invoke.VarHandle;
 import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
 import java.nio.channels.FileChannel;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
@@ -33,6 +36,11 @@ import java.nio.file.StandardOpenOption;
 public final class WavReader implements Closeable {
     private static final String SUPPORTED = "supported: PCM 8/16/24/32-bit, float 32/64-bit";
     private static final int BUFFER_BYTES = 1 << 16;
+    /** Little-endian views of the byte buffer: one load per sample, compiled to a plain memory read. */
+    private static final VarHandle LE_SHORT = MethodHandles.byteArrayViewVarHandle(short[].class, ByteOrder.LITTLE_ENDIAN);
+    private static final VarHandle LE_INT = MethodHandles.byteArrayViewVarHandle(int[].class, ByteOrder.LITTLE_ENDIAN);
+    private static final VarHandle LE_FLOAT = MethodHandles.byteArrayViewVarHandle(float[].class, ByteOrder.LITTLE_ENDIAN);
+    private static final VarHandle LE_DOUBLE = MethodHandles.byteArrayViewVarHandle(double[].class, ByteOrder.LITTLE_ENDIAN);
     private static final int FMT_READ_BYTES = 40;
 
     private final Path file;
@@ -139,7 +147,7 @@ public final class WavReader implements Closeable {
             }
             case PCM_16 -> {
                 for (int i = from; i < end; i++) {
-                    dst[i] = (short) ((b[p] & 0xFF) | b[p + 1] << 8) * 0x1p-15;
+                    dst[i] = (short) LE_SHORT.get(b, p) * 0x1p-15;
                     p += 2;
                 }
             }
@@ -151,21 +159,19 @@ public final class WavReader implements Closeable {
             }
             case PCM_32 -> {
                 for (int i = from; i < end; i++) {
-                    dst[i] = int32(b, p) * 0x1p-31;
+                    dst[i] = (int) LE_INT.get(b, p) * 0x1p-31;
                     p += 4;
                 }
             }
             case FLOAT_32 -> {
                 for (int i = from; i < end; i++) {
-                    dst[i] = Float.intBitsToFloat(int32(b, p));
+                    dst[i] = (float) LE_FLOAT.get(b, p);
                     p += 4;
                 }
             }
             case FLOAT_64 -> {
                 for (int i = from; i < end; i++) {
-                    long lo = int32(b, p) & 0xFFFF_FFFFL;
-                    long hi = int32(b, p + 4);
-                    dst[i] = Double.longBitsToDouble(hi << 32 | lo);
+                    dst[i] = (double) LE_DOUBLE.get(b, p);
                     p += 8;
                 }
             }

@@ -16,7 +16,9 @@ import org.roseate.io.WavReader;
 
 /**
  * Runs the pipeline over a WAV file in blocks, with progress, cancel and intermediate results: the one
- * way a file is measured, by the command line, the window and {@code compare}.
+ * way a file is measured, by the command line, the window and {@code compare}. The blocks are read
+ * and decoded one or two ahead on a second thread ({@link ReadAhead}); the pipeline runs on the
+ * caller's thread, on the same blocks in the same order.
  */
 public final class FileMeasure {
     /** Least wall time between two intermediate results, ns (about display rate, no faster). */
@@ -44,23 +46,24 @@ public final class FileMeasure {
             WavFormat f = reader.format();
             MeasurePipeline p = new MeasurePipeline(request, name, f.sampleRateHz(), f.channels(), codeFs(f.encoding()));
             p.checkLength(reader.frames());
-            double[] buf = new double[MeasurePipeline.BLOCK_FRAMES * f.channels()];
             long total = reader.frames();
             long lastAverages = 0;
             long lastPublish = 0;
-            for (int got; (got = reader.readFrames(buf, MeasurePipeline.BLOCK_FRAMES)) > 0; ) {
-                if (cancelled.getAsBoolean()) {
-                    throw new CancellationException(name + ": cancelled");
-                }
-                p.accept(buf, got);
-                progress.accept(p.frames() / (double) total);
-                long now = System.nanoTime();
-                if (p.averages() != lastAverages && now - lastPublish > PUBLISH_EVERY_NANOS) {
-                    lastAverages = p.averages();
-                    lastPublish = now;
-                    MeasureResult r = p.result(false);
-                    if (r != null) {
-                        partial.accept(r);
+            try (ReadAhead blocks = new ReadAhead(reader, MeasurePipeline.BLOCK_FRAMES)) {
+                for (double[] buf; (buf = blocks.next()) != null; ) {
+                    if (cancelled.getAsBoolean()) {
+                        throw new CancellationException(name + ": cancelled");
+                    }
+                    p.accept(buf, blocks.frames());
+                    progress.accept(p.frames() / (double) total);
+                    long now = System.nanoTime();
+                    if (p.averages() != lastAverages && now - lastPublish > PUBLISH_EVERY_NANOS) {
+                        lastAverages = p.averages();
+                        lastPublish = now;
+                        MeasureResult r = p.result(false);
+                        if (r != null) {
+                            partial.accept(r);
+                        }
                     }
                 }
             }

@@ -92,6 +92,25 @@ public final class BenchData {
         return x;
     }
 
+    /**
+     * The sections of {@code presets/bench-pink.json} as {@code render} runs them at 48 kHz mono
+     * (at the oversampled rate), for the whole-process render job of {@code whole_process_jobs.py}:
+     * {@code DIR/bench-pink-sos.txt} (scipy's sos layout) and {@code DIR/bench-pink.txt}
+     * ({@code factor=M}, {@code sos_rate_hz=…}).
+     */
+    static void writeBenchPinkSections(Path dir) throws IOException {
+        Zpk zpk = CircuitModel.of(DesignReader.read(Path.of("presets/bench-pink.json")), "bench-pink.json").zpk();
+        NoiseChain chain = NoiseChain.design(zpk, new ChainSettings(RATE_HZ, 1, false, 1, -20), "bench-pink");
+        SosDesign sos = chain.filter().orElseThrow().sections();
+        List<String> lines = new ArrayList<>();
+        for (Biquad q : sos.sections()) {
+            lines.add(String.format(Locale.ROOT, "%.17g %.17g %.17g 1 %.17g %.17g", q.b0(), q.b1(), q.b2(), q.a1(), q.a2()));
+        }
+        Files.write(dir.resolve("bench-pink-sos.txt"), lines, StandardCharsets.UTF_8);
+        Files.writeString(dir.resolve("bench-pink.txt"), String.format(Locale.ROOT, "factor=%d%nsos_rate_hz=%s%n",
+                chain.oversamplingFactor(), sos.sampleRateHz()));
+    }
+
     public static void main(String[] args) throws IOException {
         Path dir = Path.of(args.length > 0 ? args[0] : "target/bench-data");
         Files.createDirectories(dir);
@@ -111,6 +130,7 @@ public final class BenchData {
         Files.writeString(dir.resolve("settings.txt"), String.format(Locale.ROOT,
                 "rate_hz=%s%nsos_rate_hz=%s%nwelch_segment=%d%nwelch_overlap=%d%nsections=%d%nsamples=%d%n",
                 RATE_HZ, sos.sampleRateHz(), WELCH_SEGMENT, WELCH_SEGMENT / 2, sos.sections().size(), x.length));
+        writeBenchPinkSections(dir);
         System.out.println("wrote " + dir + ": " + x.length + " samples, " + sos.sections().size() + " sections at "
                 + sos.sampleRateHz() + " Hz");
     }

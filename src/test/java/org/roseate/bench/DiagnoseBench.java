@@ -56,6 +56,13 @@ public class DiagnoseBench {
     private List<PartPrior> priors;
     private MeasuredResponse measured;
 
+    /** Writes the benchmark's capture to {@code args[0]} for the whole-process timing (whole-process.sh). */
+    public static void main(String[] args) throws Exception {
+        Design d = DesignReader.read(DESIGN);
+        SyntheticCapture.write(Path.of(args[0]), d.withValues(Map.of("R4", 6800 * 0.8, "C3", 33e-9 * 1.2)), RATE_HZ, 22,
+                true, 0.01, 42, 60 * RATE_HZ);
+    }
+
     @Setup(Level.Trial)
     public void setUp() throws Exception {
         design = DesignReader.read(DESIGN);
