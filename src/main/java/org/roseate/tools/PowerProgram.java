@@ -52,6 +52,11 @@ final class PowerProgram {
     private final NodalSolver[] nodal;
     private final int[][][] branchPrograms;
     private final int depth;
+    /**
+     * Frequencies per pass of {@link #powers}: the batch stacks (depth × 2 × BLOCK doubles) stay
+     * in the first-level cache for the usual depths of 3 to 8 (common practice for blocked loops).
+     */
+    static final int BLOCK = 128;
 
     private PowerProgram(Design design) {
         parts = design.components();
@@ -156,7 +161,11 @@ final class PowerProgram {
         for (int s = 0; s < n.length; s++) {
             n[s] = nodal[s] == null ? null : nodal[s].workspace();
         }
-        return new Workspace(depth, kindCode.length, n);
+        int branches = 0;
+        for (int[][] b : branchPrograms) {
+            branches = Math.max(branches, b == null ? 0 : b.length);
+        }
+        return new Workspace(depth, kindCode.length, n, branches);
     }
 
     int stageCount() {
@@ -199,7 +208,17 @@ final class PowerProgram {
         /** Per stage, the op-amp's gbwHz as a multiple of the design's (1 unless a tolerance run draws it). */
         final double[] gbwFactor;
 
-        Workspace(int depth, int parts, NodalSolver.Workspace[] nodal) {
+        /** Batch stacks of {@link #powers}: slot t of frequency i at t·{@link #BLOCK} + i. */
+        final double[] blockRe;
+        final double[] blockIm;
+        /** Batch per-frequency temporaries: running product, output-side impedance, branch admittances. */
+        final double[] blockAcc = new double[BLOCK];
+        final double[] blockAr = new double[BLOCK];
+        final double[] blockAi = new double[BLOCK];
+        final double[] blockYRe;
+        final double[] blockYIm;
+
+        Workspace(int depth, int parts, NodalSolver.Workspace[] nodal, int branches) {
             re = new double[depth];
             im = new double[depth];
             values = new double[parts];
@@ -207,6 +226,10 @@ final class PowerProgram {
             this.nodal = nodal;
             gbwFactor = new double[nodal.length];
             java.util.Arrays.fill(gbwFactor, 1.0);
+            blockRe = new double[depth * BLOCK];
+            blockIm = new double[depth * BLOCK];
+            blockYRe = new double[branches * BLOCK];
+            blockYIm = new double[branches * BLOCK];
         }
     }
 
@@ -315,6 +338,214 @@ final class PowerProgram {
             acc *= p;
         }
         return acc;
+    }
+
+    /**
+     * A fixed set of angular frequencies ω (rad/s, each &gt; 0) with 1/ω hoisted, for
+     * {@link #powers}. Immutable.
+     */
+    static final class Frequencies {
+        final double[] omega;
+        final double[] inverseOmega;
+
+        Frequencies(double[] omegaRadPerS) {
+            omega = omegaRadPerS.clone();
+            inverseOmega = new double[omega.length];
+            for (int i = 0; i < omega.length; i++) {
+                inverseOmega[i] = 1 / omega[i];
+            }
+        }
+
+        int size() {
+            return omega.length;
+        }
+    }
+
+    /**
+     * |H(jω)|² at every frequency of f, for the values last {@link #load loaded}, into
+     * {@code out[0 … f.size() − 1]}. The same arithmetic as {@link #power}, operation for operation
+     * and in the same order (Java evaluates doubles strictly and never contracts to fused
+     * multiply-adds), so each result is bitwise equal to {@code power(f.omega[i], w)}; only the
+     * loop order differs: each instruction of the compiled program runs over a block of
+     * {@link #BLOCK} frequencies (structure of arrays) instead of each frequency running the whole
+     * program. Allocates nothing.
+     */
+    void powers(Frequencies f, Workspace w, double[] out) {
+        int n = f.size();
+        for (int from = 0; from < n; from += BLOCK) {
+            powersBlock(f.omega, f.inverseOmega, from, Math.min(BLOCK, n - from), w, out);
+        }
+    }
+
+    private void powersBlock(double[] omega, double[] invOmega, int from, int len, Workspace w, double[] out) {
+        double[] acc = w.blockAcc;
+        double[] re = w.blockRe;
+        double[] im = w.blockIm;
+        double[] ar = w.blockAr;
+        double[] ai = w.blockAi;
+        java.util.Arrays.fill(acc, 0, len, 1.0);
+        for (int s = 0; s < stageKind.length; s++) {
+            if (stageKind[s] == KIND_CIRCUIT) {
+                circuitPowers(s, omega, invOmega, from, len, w);
+                continue;
+            }
+            runBlock(programA[s], omega, invOmega, from, len, w);
+            System.arraycopy(re, 0, ar, 0, len);
+            System.arraycopy(im, 0, ai, 0, len);
+            if (stageKind[s] == KIND_DIVIDER) {
+                if (programLoad[s] != null) {
+                    runBlock(programLoad[s], omega, invOmega, from, len, w);
+                    for (int i = 0; i < len; i++) {
+                        double xr = ar[i];
+                        double xi = ai[i];
+                        double lr = re[i];
+                        double li = im[i];
+                        double nr = xr * lr - xi * li;
+                        double ni = xr * li + xi * lr;
+                        double dr = xr + lr;
+                        double di = xi + li;
+                        double m = dr * dr + di * di;
+                        ar[i] = (nr * dr + ni * di) / m;
+                        ai[i] = (ni * dr - nr * di) / m;
+                    }
+                }
+                runBlock(programB[s], omega, invOmega, from, len, w);
+                for (int i = 0; i < len; i++) {
+                    double xr = ar[i];
+                    double xi = ai[i];
+                    double dr = xr + re[i];
+                    double di = xi + im[i];
+                    acc[i] *= (xr * xr + xi * xi) / (dr * dr + di * di);
+                }
+                continue;
+            }
+            runBlock(programB[s], omega, invOmega, from, len, w);
+            boolean inverting = stageKind[s] == KIND_INVERTING;
+            boolean ideal = Double.isInfinite(openLoopGain[s]);
+            double invAr = 1 / openLoopGain[s];
+            double tau = tauSeconds[s];
+            double gainTimesFactor = openLoopGain[s] * w.gbwFactor[s];
+            for (int i = 0; i < len; i++) {
+                double xr = ar[i];
+                double xi = ai[i];
+                double br = re[i];
+                double bi = im[i];
+                double m = br * br + bi * bi;
+                double gr = (xr * br + xi * bi) / m;
+                double gi = (xi * br - xr * bi) / m;
+                double tr = inverting ? -gr : 1 + gr;
+                double ti = inverting ? -gi : gi;
+                double num = tr * tr + ti * ti;
+                double p;
+                if (ideal) {
+                    p = num;
+                } else {
+                    double invAi = omega[from + i] * tau / gainTimesFactor;
+                    double opr = 1 + gr;
+                    double dr = 1 + opr * invAr - gi * invAi;
+                    double di = opr * invAi + gi * invAr;
+                    p = num / (dr * dr + di * di);
+                }
+                acc[i] *= p;
+            }
+        }
+        System.arraycopy(acc, 0, out, from, len);
+    }
+
+    /** {@link #circuitPower} over a block: branch programs batched, the nodal solve per frequency. */
+    private void circuitPowers(int s, double[] omega, double[] invOmega, int from, int len, Workspace w) {
+        NodalSolver.Workspace nw = w.nodal[s];
+        int[][] programs = branchPrograms[s];
+        double[] re = w.blockRe;
+        double[] im = w.blockIm;
+        double[] yRe = w.blockYRe;
+        double[] yIm = w.blockYIm;
+        for (int k = 0; k < programs.length; k++) {
+            runBlock(programs[k], omega, invOmega, from, len, w);
+            int o = k * BLOCK;
+            for (int i = 0; i < len; i++) {
+                double m = NodalSolver.REFERENCE_OHMS / (re[i] * re[i] + im[i] * im[i]);
+                yRe[o + i] = re[i] * m;
+                yIm[o + i] = -im[i] * m;
+            }
+        }
+        double[] acc = w.blockAcc;
+        for (int i = 0; i < len; i++) {
+            for (int k = 0; k < programs.length; k++) {
+                nw.yRe[k] = yRe[k * BLOCK + i];
+                nw.yIm[k] = yIm[k * BLOCK + i];
+            }
+            nodal[s].factor(0, omega[from + i], nw);
+            nodal[s].solve(nw);
+            double hr = nodal[s].outputRe(nw);
+            double hi = nodal[s].outputIm(nw);
+            acc[i] *= hr * hr + hi * hi;
+        }
+    }
+
+    /**
+     * {@link #run} over a block of frequencies: one pass per instruction; the impedance of
+     * frequency from + i ends in blockRe[i], blockIm[i].
+     */
+    private void runBlock(int[] program, double[] omega, double[] invOmega, int from, int len, Workspace ws) {
+        double[] re = ws.blockRe;
+        double[] im = ws.blockIm;
+        double[] v = ws.values;
+        double[] inv = ws.inverse;
+        int top = 0;
+        for (int op : program) {
+            int arg = op >>> 2;
+            int code = op & 3;
+            if (code == SUM) {
+                int first = (top - arg) * BLOCK;
+                // the same left-to-right sum from 0 as run's, one addend slot at a time
+                for (int i = 0; i < len; i++) {
+                    re[first + i] = 0 + re[first + i];
+                    im[first + i] = 0 + im[first + i];
+                }
+                for (int t = top - arg + 1; t < top; t++) {
+                    int o = t * BLOCK;
+                    for (int i = 0; i < len; i++) {
+                        re[first + i] += re[o + i];
+                        im[first + i] += im[o + i];
+                    }
+                }
+                top -= arg - 1;
+            } else if (code == INVERT) {
+                int o = (top - 1) * BLOCK;
+                for (int i = 0; i < len; i++) {
+                    double a = re[o + i];
+                    double b = im[o + i];
+                    double m = 1 / (a * a + b * b);
+                    re[o + i] = a * m;
+                    im[o + i] = -b * m;
+                }
+            } else {
+                int o = top * BLOCK;
+                int k = kindCode[arg];
+                boolean admittance = code == PUSH_Y;
+                if (k == 0) {
+                    double r = admittance ? inv[arg] : v[arg];
+                    java.util.Arrays.fill(re, o, o + len, r);
+                    java.util.Arrays.fill(im, o, o + len, 0);
+                } else {
+                    java.util.Arrays.fill(re, o, o + len, 0);
+                    // capacitor: Z = −j/(ωC), Y = jωC; inductor: Z = jωL, Y = −j/(ωL)
+                    if ((k == 1) == admittance) {
+                        double x = v[arg];
+                        for (int i = 0; i < len; i++) {
+                            im[o + i] = omega[from + i] * x;
+                        }
+                    } else {
+                        double x = -inv[arg];
+                        for (int i = 0; i < len; i++) {
+                            im[o + i] = x * invOmega[from + i];
+                        }
+                    }
+                }
+                top++;
+            }
+        }
     }
 
     /**

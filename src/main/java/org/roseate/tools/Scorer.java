@@ -40,6 +40,9 @@ final class Scorer {
     private final double[] targetBandDb;
     private final double[] pointOmega;
     private final double[] targetPointDb;
+    /** bandOmega and pointOmega with 1/ω hoisted, for the batch evaluation. */
+    private final PowerProgram.Frequencies bandFrequencies;
+    private final PowerProgram.Frequencies pointFrequencies;
 
     Scorer(PowerProgram program, FrequencyRange range, TargetSlope target, BandTable table) {
         this(program, range, target, table, hz -> 1.0);
@@ -87,6 +90,8 @@ final class Scorer {
             pointOmega[i] = 2 * Math.PI * grid[i];
             targetPointDb[i] = target.levelDb(grid[i]) - 10 * Math.log10(sourceShape.applyAsDouble(grid[i]));
         }
+        bandFrequencies = new PowerProgram.Frequencies(bandOmega);
+        pointFrequencies = new PowerProgram.Frequencies(pointOmega);
     }
 
     private static int subIntervals(Band b) {
@@ -108,10 +113,12 @@ final class Scorer {
     /** Band levels (dB) into {@code out}, length ≥ {@link #bandCount()}. */
     void bandLevels(double[] values, Workspace w, double[] out) {
         program.load(values, w.power);
+        double[] power = w.powerAtNode();
+        program.powers(bandFrequencies, w.power, power);
         for (int i = 0; i < targetBandDb.length; i++) {
             double sum = 0;
             for (int k = bandStart[i]; k < bandStart[i + 1]; k++) {
-                sum += bandWeightHz[k] * program.power(bandOmega[k], w.power);
+                sum += bandWeightHz[k] * power[k];
             }
             out[i] = DB_PER_NEPER_POWER * Math.log(sum);
         }
@@ -134,10 +141,12 @@ final class Scorer {
     /** The centred pointwise peak deviation (maxDeviationDb), dB. */
     double pointPeakDb(double[] values, Workspace w) {
         program.load(values, w.power);
+        double[] power = w.powerAtNode();
+        program.powers(pointFrequencies, w.power, power);
         double max = Double.NEGATIVE_INFINITY;
         double min = Double.POSITIVE_INFINITY;
         for (int i = 0; i < pointOmega.length; i++) {
-            double d = DB_PER_NEPER_POWER * Math.log(program.power(pointOmega[i], w.power)) - targetPointDb[i];
+            double d = DB_PER_NEPER_POWER * Math.log(power[i]) - targetPointDb[i];
             max = Math.max(max, d);
             min = Math.min(min, d);
         }
@@ -155,10 +164,11 @@ final class Scorer {
     }
 
     Workspace workspace() {
-        return new Workspace(program.workspace(), new double[targetBandDb.length]);
+        return new Workspace(program.workspace(), new double[targetBandDb.length],
+                new double[Math.max(bandOmega.length, pointOmega.length)]);
     }
 
-    /** Per-thread scratch. */
-    record Workspace(PowerProgram.Workspace power, double[] bands) {
+    /** Per-thread scratch: the program's, the band deviations, and |H|² at each node or point. */
+    record Workspace(PowerProgram.Workspace power, double[] bands, double[] powerAtNode) {
     }
 }

@@ -4,13 +4,19 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.SplittableRandom;
 import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
 import org.roseate.bands.BandFraction;
 import org.roseate.bands.BandTable;
 import org.roseate.circuit.Design;
 import org.roseate.circuit.DesignReader;
+import org.roseate.circuit.OpAmp;
 import org.roseate.compare.DesignAnalysis;
 import org.roseate.compare.FrequencyRange;
 import org.roseate.compare.TargetSlope;
@@ -56,5 +62,83 @@ class PowerProgramTest {
             assertEquals(a.bands().maxBandDeviationDb(), s.bandPeakDb(s.program().nominal(), w), 1e-10);
             assertEquals(a.slope().maxDeviationDb(), s.pointPeakDb(s.program().nominal(), w), 1e-10);
         }
+    }
+
+    /**
+     * The batch evaluation against the per-frequency one: the same operations in the same order,
+     * so every value must be bitwise equal (tolerance 0, not a rounding bound), with drawn part
+     * values (±30 %) and op-amp gbwHz factors, over a frequency count that leaves a partial block.
+     */
+    @ParameterizedTest
+    @MethodSource("presets")
+    void batchPowersEqualPowerBitwise(Path preset) {
+        assertBatchEqualsScalar(DesignReader.read(preset), preset.toString());
+    }
+
+    @Test
+    void batchPowersEqualPowerBitwiseOnFitTopologies() {
+        FrequencyRange r = new FrequencyRange(20, 20000);
+        PartLimits limits = PartLimits.DEFAULT;
+        for (int branches : new int[] {1, 4, 12}) {
+            assertBatchEqualsScalar(Topologies.invertingLadder(branches, OptionalDouble.empty(),
+                    Optional.of(OpAmp.singlePole(1e6)), limits, r), "inverting " + branches);
+            assertBatchEqualsScalar(Topologies.invertingLadder(branches, OptionalDouble.of(10e3),
+                    Optional.empty(), limits, r), "inverting ideal " + branches);
+            assertBatchEqualsScalar(Topologies.dividerLadder(branches, OptionalDouble.of(1e6), limits, r),
+                    "divider loaded " + branches);
+            assertBatchEqualsScalar(Topologies.dividerLadder(branches, OptionalDouble.empty(), limits, r),
+                    "divider " + branches);
+        }
+    }
+
+    private static void assertBatchEqualsScalar(Design d, String what) {
+        PowerProgram p = PowerProgram.of(d);
+        int n = 2 * PowerProgram.BLOCK + 37;
+        double[] omega = new double[n];
+        for (int i = 0; i < n; i++) {
+            // 0.1 Hz to 200 kHz, log-spaced
+            omega[i] = 2 * Math.PI * 0.1 * Math.pow(2e6, (double) i / (n - 1));
+        }
+        PowerProgram.Frequencies f = new PowerProgram.Frequencies(omega);
+        PowerProgram.Workspace batch = p.workspace();
+        PowerProgram.Workspace scalar = p.workspace();
+        double[] out = new double[n];
+        SplittableRandom rnd = new SplittableRandom(17);
+        double[] nominal = p.nominal();
+        for (int trial = 0; trial < 5; trial++) {
+            double[] v = nominal.clone();
+            if (trial > 0) {
+                for (int i = 0; i < v.length; i++) {
+                    v[i] *= 1 + 0.3 * (2 * rnd.nextDouble() - 1);
+                }
+                for (int s = 0; s < p.stageCount(); s++) {
+                    double g = 0.5 + rnd.nextDouble();
+                    if (p.hasOpAmp(s)) {
+                        PowerProgram.setGbwFactor(s, -1, g, batch);
+                        PowerProgram.setGbwFactor(s, -1, g, scalar);
+                    }
+                    for (OpAmpAt o : circuitOpAmps(p, d, s)) {
+                        PowerProgram.setGbwFactor(s, o.k, g, batch);
+                        PowerProgram.setGbwFactor(s, o.k, g, scalar);
+                    }
+                }
+            }
+            p.load(v, batch);
+            p.load(v, scalar);
+            p.powers(f, batch, out);
+            for (int i = 0; i < n; i++) {
+                double expected = p.power(omega[i], scalar);
+                assertEquals(Double.doubleToRawLongBits(expected), Double.doubleToRawLongBits(out[i]),
+                        what + " trial " + trial + " at ω " + omega[i] + ": " + expected + " vs " + out[i]);
+            }
+        }
+    }
+
+    private record OpAmpAt(int k) {
+    }
+
+    private static List<OpAmpAt> circuitOpAmps(PowerProgram p, Design d, int s) {
+        return PartsList.opAmps(d).stream().filter(o -> o.stage() - 1 == s)
+                .map(o -> new OpAmpAt(p.circuitOpAmpIndex(s, o.name()))).filter(o -> o.k >= 0).toList();
     }
 }
