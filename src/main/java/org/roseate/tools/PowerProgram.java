@@ -499,11 +499,19 @@ final class PowerProgram {
             if (code == SUM) {
                 int first = (top - arg) * BLOCK;
                 // the same left-to-right sum from 0 as run's, one addend slot at a time
-                for (int i = 0; i < len; i++) {
-                    re[first + i] = 0 + re[first + i];
-                    im[first + i] = 0 + im[first + i];
+                if (arg == 1) {
+                    for (int i = 0; i < len; i++) {
+                        re[first + i] = 0 + re[first + i];
+                        im[first + i] = 0 + im[first + i];
+                    }
+                } else {
+                    int second = first + BLOCK;
+                    for (int i = 0; i < len; i++) {
+                        re[first + i] = 0 + re[first + i] + re[second + i];
+                        im[first + i] = 0 + im[first + i] + im[second + i];
+                    }
                 }
-                for (int t = top - arg + 1; t < top; t++) {
+                for (int t = top - arg + 2; t < top; t++) {
                     int o = t * BLOCK;
                     for (int i = 0; i < len; i++) {
                         re[first + i] += re[o + i];
