@@ -51,6 +51,11 @@ final class PowerProgram {
     /** Per circuit stage: its nodal equations and one program per branch (null for other kinds). */
     private final NodalSolver[] nodal;
     private final int[][][] branchPrograms;
+    /** The same networks compiled for {@link #powers} ({@link #compileBlock}). */
+    private final int[][] blockA;
+    private final int[][] blockB;
+    private final int[][] blockLoad;
+    private final int[][][] blockBranches;
     private final int depth;
     /**
      * Frequencies per pass of {@link #powers}: the batch stacks (depth × 2 × BLOCK doubles) stay
@@ -76,6 +81,10 @@ final class PowerProgram {
         tauSeconds = new double[n];
         nodal = new NodalSolver[n];
         branchPrograms = new int[n][][];
+        blockA = new int[n][];
+        blockB = new int[n][];
+        blockLoad = new int[n][];
+        blockBranches = new int[n][][];
         int d = 1;
         for (int s = 0; s < n; s++) {
             Stage st = design.stages().get(s);
@@ -89,9 +98,11 @@ final class PowerProgram {
                 nodal[s] = NodalSolver.of(c);
                 List<String> keys = nodal[s].branchKeys();
                 branchPrograms[s] = new int[keys.size()][];
+                blockBranches[s] = new int[keys.size()][];
                 for (int k = 0; k < keys.size(); k++) {
                     Network net = c.branches().get(keys.get(k));
                     branchPrograms[s][k] = compile(net);
+                    blockBranches[s][k] = compileBlock(net);
                     d = Math.max(d, depth(net));
                 }
                 continue;
@@ -110,9 +121,12 @@ final class PowerProgram {
                 a = div.shunt();
                 b = div.series();
                 programLoad[s] = div.load().map(this::compile).orElse(null);
+                blockLoad[s] = div.load().map(this::compileBlock).orElse(null);
             }
             programA[s] = compile(a);
             programB[s] = compile(b);
+            blockA[s] = compileBlock(a);
+            blockB[s] = compileBlock(b);
             OpAmp op = st.opamp().filter(o -> !o.isIdeal()).orElse(null);
             openLoopGain[s] = op == null ? Double.POSITIVE_INFINITY : op.openLoopGain();
             tauSeconds[s] = op == null ? 0 : op.poleTimeConstantSeconds();
@@ -389,12 +403,12 @@ final class PowerProgram {
                 circuitPowers(s, omega, invOmega, from, len, w);
                 continue;
             }
-            runBlock(programA[s], omega, invOmega, from, len, w);
+            runBlock(blockA[s], omega, invOmega, from, len, w);
             System.arraycopy(re, 0, ar, 0, len);
             System.arraycopy(im, 0, ai, 0, len);
             if (stageKind[s] == KIND_DIVIDER) {
                 if (programLoad[s] != null) {
-                    runBlock(programLoad[s], omega, invOmega, from, len, w);
+                    runBlock(blockLoad[s], omega, invOmega, from, len, w);
                     for (int i = 0; i < len; i++) {
                         double xr = ar[i];
                         double xi = ai[i];
@@ -409,7 +423,7 @@ final class PowerProgram {
                         ai[i] = (ni * dr - nr * di) / m;
                     }
                 }
-                runBlock(programB[s], omega, invOmega, from, len, w);
+                runBlock(blockB[s], omega, invOmega, from, len, w);
                 for (int i = 0; i < len; i++) {
                     double xr = ar[i];
                     double xi = ai[i];
@@ -419,7 +433,7 @@ final class PowerProgram {
                 }
                 continue;
             }
-            runBlock(programB[s], omega, invOmega, from, len, w);
+            runBlock(blockB[s], omega, invOmega, from, len, w);
             boolean inverting = stageKind[s] == KIND_INVERTING;
             boolean ideal = Double.isInfinite(openLoopGain[s]);
             double invAr = 1 / openLoopGain[s];
@@ -455,7 +469,7 @@ final class PowerProgram {
     /** {@link #circuitPower} over a block: branch programs batched, the nodal solve per frequency. */
     private void circuitPowers(int s, double[] omega, double[] invOmega, int from, int len, Workspace w) {
         NodalSolver.Workspace nw = w.nodal[s];
-        int[][] programs = branchPrograms[s];
+        int[][] programs = blockBranches[s];
         double[] re = w.blockRe;
         double[] im = w.blockIm;
         double[] yRe = w.blockYRe;
@@ -483,75 +497,156 @@ final class PowerProgram {
         }
     }
 
+    // Block instructions: op (3 bits) | leaf form (2 bits) << 3 | slot (8 bits) << 5 | part slot << 13.
+    private static final int B_SET = 0;
+    private static final int B_START = 1;
+    private static final int B_ADD = 2;
+    private static final int B_START_SLOT = 3;
+    private static final int B_ADD_SLOT = 4;
+    private static final int B_INVERT = 5;
+    /** Leaf forms: re = value, re = 1/value, im = ω·value, im = −(1/value)·(1/ω). */
+    private static final int FORM_VALUE = 0;
+    private static final int FORM_INVERSE = 1;
+    private static final int FORM_OMEGA_VALUE = 2;
+    private static final int FORM_MINUS_INVERSE_OVER_OMEGA = 3;
+
     /**
-     * {@link #run} over a block of frequencies: one pass per instruction; the impedance of
-     * frequency from + i ends in blockRe[i], blockIm[i].
+     * The network compiled for {@link #runBlock}: the postfix program's sums accumulate in place
+     * as each addend is made (same addends, same left-to-right order from 0), and a leaf adds only
+     * its non-zero part. Skipping a +0 addend is exact: an accumulator starts as 0 + x, which is
+     * never −0, and a sum is −0 only when both addends are, so adding +0 never changes it.
+     */
+    private int[] compileBlock(Network n) {
+        List<Integer> ops = new ArrayList<>();
+        if (n instanceof Component c) {
+            ops.add(leafOp(B_SET, c, false, 0));
+        } else {
+            emitBlock(n, false, 0, ops);
+        }
+        return ops.stream().mapToInt(Integer::intValue).toArray();
+    }
+
+    private int leafOp(int op, Component c, boolean admittance, int slot) {
+        int k = kindCode[slots.get(c.designator())];
+        int form = k == 0 ? (admittance ? FORM_INVERSE : FORM_VALUE)
+                : (k == 1) == admittance ? FORM_OMEGA_VALUE : FORM_MINUS_INVERSE_OVER_OMEGA;
+        if (slot > 255) {
+            throw new IllegalArgumentException("network nested too deeply: " + slot + " levels");
+        }
+        return op | form << 3 | slot << 5 | slots.get(c.designator()) << 13;
+    }
+
+    /** Code leaving group n's impedance ({@code admittance} false) or admittance in the given slot. */
+    private void emitBlock(Network n, boolean admittance, int slot, List<Integer> ops) {
+        boolean parallel = n instanceof Parallel;
+        List<Network> ps = parallel ? ((Parallel) n).parts() : ((Series) n).parts();
+        for (int i = 0; i < ps.size(); i++) {
+            Network p = ps.get(i);
+            if (p instanceof Component c) {
+                ops.add(leafOp(i == 0 ? B_START : B_ADD, c, parallel, slot));
+            } else if (i == 0) {
+                emitBlock(p, parallel, slot, ops);
+                ops.add(B_START_SLOT | slot << 5);
+            } else {
+                emitBlock(p, parallel, slot + 1, ops);
+                ops.add(B_ADD_SLOT | slot << 5);
+            }
+        }
+        if (parallel != admittance) {
+            ops.add(B_INVERT | slot << 5);
+        }
+    }
+
+    /**
+     * {@link #run} over a block of frequencies, one pass per instruction of
+     * {@link #compileBlock}'s code; the impedance of frequency from + i ends in blockRe[i],
+     * blockIm[i], bitwise equal to run's.
      */
     private void runBlock(int[] program, double[] omega, double[] invOmega, int from, int len, Workspace ws) {
         double[] re = ws.blockRe;
         double[] im = ws.blockIm;
         double[] v = ws.values;
         double[] inv = ws.inverse;
-        int top = 0;
         for (int op : program) {
-            int arg = op >>> 2;
-            int code = op & 3;
-            if (code == SUM) {
-                int first = (top - arg) * BLOCK;
-                // the same left-to-right sum from 0 as run's, one addend slot at a time
-                if (arg == 1) {
-                    for (int i = 0; i < len; i++) {
-                        re[first + i] = 0 + re[first + i];
-                        im[first + i] = 0 + im[first + i];
-                    }
-                } else {
-                    int second = first + BLOCK;
-                    for (int i = 0; i < len; i++) {
-                        re[first + i] = 0 + re[first + i] + re[second + i];
-                        im[first + i] = 0 + im[first + i] + im[second + i];
+            int code = op & 7;
+            int form = op >>> 3 & 3;
+            int o = (op >>> 5 & 255) * BLOCK;
+            int part = op >>> 13;
+            switch (code) {
+                case B_SET, B_START -> {
+                    // B_START is 0 + leaf: the same value, except that −0 becomes +0
+                    double zero = code == B_SET ? 0.0 : 0 + 0.0;
+                    if (form == FORM_VALUE || form == FORM_INVERSE) {
+                        double r = form == FORM_VALUE ? v[part] : inv[part];
+                        java.util.Arrays.fill(re, o, o + len, code == B_SET ? r : 0 + r);
+                        java.util.Arrays.fill(im, o, o + len, zero);
+                    } else {
+                        java.util.Arrays.fill(re, o, o + len, zero);
+                        if (form == FORM_OMEGA_VALUE) {
+                            double x = v[part];
+                            if (code == B_SET) {
+                                for (int i = 0; i < len; i++) {
+                                    im[o + i] = omega[from + i] * x;
+                                }
+                            } else {
+                                for (int i = 0; i < len; i++) {
+                                    im[o + i] = 0 + omega[from + i] * x;
+                                }
+                            }
+                        } else {
+                            double x = -inv[part];
+                            if (code == B_SET) {
+                                for (int i = 0; i < len; i++) {
+                                    im[o + i] = x * invOmega[from + i];
+                                }
+                            } else {
+                                for (int i = 0; i < len; i++) {
+                                    im[o + i] = 0 + x * invOmega[from + i];
+                                }
+                            }
+                        }
                     }
                 }
-                for (int t = top - arg + 2; t < top; t++) {
-                    int o = t * BLOCK;
-                    for (int i = 0; i < len; i++) {
-                        re[first + i] += re[o + i];
-                        im[first + i] += im[o + i];
-                    }
-                }
-                top -= arg - 1;
-            } else if (code == INVERT) {
-                int o = (top - 1) * BLOCK;
-                for (int i = 0; i < len; i++) {
-                    double a = re[o + i];
-                    double b = im[o + i];
-                    double m = 1 / (a * a + b * b);
-                    re[o + i] = a * m;
-                    im[o + i] = -b * m;
-                }
-            } else {
-                int o = top * BLOCK;
-                int k = kindCode[arg];
-                boolean admittance = code == PUSH_Y;
-                if (k == 0) {
-                    double r = admittance ? inv[arg] : v[arg];
-                    java.util.Arrays.fill(re, o, o + len, r);
-                    java.util.Arrays.fill(im, o, o + len, 0);
-                } else {
-                    java.util.Arrays.fill(re, o, o + len, 0);
-                    // capacitor: Z = −j/(ωC), Y = jωC; inductor: Z = jωL, Y = −j/(ωL)
-                    if ((k == 1) == admittance) {
-                        double x = v[arg];
+                case B_ADD -> {
+                    if (form == FORM_VALUE || form == FORM_INVERSE) {
+                        double r = form == FORM_VALUE ? v[part] : inv[part];
                         for (int i = 0; i < len; i++) {
-                            im[o + i] = omega[from + i] * x;
+                            re[o + i] += r;
+                        }
+                    } else if (form == FORM_OMEGA_VALUE) {
+                        double x = v[part];
+                        for (int i = 0; i < len; i++) {
+                            im[o + i] += omega[from + i] * x;
                         }
                     } else {
-                        double x = -inv[arg];
+                        double x = -inv[part];
                         for (int i = 0; i < len; i++) {
-                            im[o + i] = x * invOmega[from + i];
+                            im[o + i] += x * invOmega[from + i];
                         }
                     }
                 }
-                top++;
+                case B_START_SLOT -> {
+                    for (int i = 0; i < len; i++) {
+                        re[o + i] = 0 + re[o + i];
+                        im[o + i] = 0 + im[o + i];
+                    }
+                }
+                case B_ADD_SLOT -> {
+                    int next = o + BLOCK;
+                    for (int i = 0; i < len; i++) {
+                        re[o + i] += re[next + i];
+                        im[o + i] += im[next + i];
+                    }
+                }
+                default -> {
+                    for (int i = 0; i < len; i++) {
+                        double a = re[o + i];
+                        double b = im[o + i];
+                        double m = 1 / (a * a + b * b);
+                        re[o + i] = a * m;
+                        im[o + i] = -b * m;
+                    }
+                }
             }
         }
     }
