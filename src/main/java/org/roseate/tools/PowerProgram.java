@@ -25,6 +25,8 @@ import org.roseate.value.ComponentKind;
  * formulas are the model package's (H = −Zf/Zin, 1 + Zf/Zg, Zshunt'/(Zseries + Zshunt'), the
  * single-pole op-amp A = A0/(1 + jω·A0/(2π·GBW))), written again here on primitive doubles so
  * that {@link org.roseate.model.CircuitModel} stays an independent check of it.
+ * One frequency at a time ({@link #power}) or a fixed set of them in blocks ({@link #powers}, the
+ * fast path of {@link Scorer}); the two give bitwise equal results.
  * Immutable and thread-safe; each thread evaluates through its own {@link Workspace}.
  */
 final class PowerProgram {
@@ -379,10 +381,11 @@ final class PowerProgram {
      * |H(jω)|² at every frequency of f, for the values last {@link #load loaded}, into
      * {@code out[0 … f.size() − 1]}. The same arithmetic as {@link #power}, operation for operation
      * and in the same order (Java evaluates doubles strictly and never contracts to fused
-     * multiply-adds), so each result is bitwise equal to {@code power(f.omega[i], w)}; only the
-     * loop order differs: each instruction of the compiled program runs over a block of
-     * {@link #BLOCK} frequencies (structure of arrays) instead of each frequency running the whole
-     * program. Allocates nothing.
+     * multiply-adds), so each result is bitwise equal to {@code power(f.omega[i], w)}; what differs
+     * is the loop order, each instruction of {@link #compileBlock}'s code running over a block of
+     * {@link #BLOCK} frequencies (structure of arrays, ω and 1/ω hoisted into f) instead of each
+     * frequency running the whole program, and that sums accumulate in place without their exact
+     * +0 addends. Allocates nothing.
      */
     void powers(Frequencies f, Workspace w, double[] out) {
         int n = f.size();
