@@ -1,6 +1,10 @@
 package org.roseate.spectrum;
 
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Objects;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.Future;
 import org.jtransforms.fft.DoubleFFT_1D;
 import org.jtransforms.utils.CommonUtils;
 
@@ -27,6 +31,16 @@ import org.jtransforms.utils.CommonUtils;
  * process then runs on its caller's thread; Roseate has no other). Other even lengths go through
  * JTransforms' mixed-radix or Bluestein code, which allocates work arrays on every segment; they work,
  * but without the no-allocation guarantee.
+ *
+ * <p><b>Parallel transforms</b> ({@link #parallel}, off by default; file jobs turn it on). Full
+ * segments are then copied into a batch of slots; when the batch is full (or a result is asked for)
+ * the caller's thread and {@link SegmentWorkers}' helpers detrend, window and transform the slots,
+ * each lane with its own FFT plan, and the caller then adds them to the averages one by one in
+ * segment order with the same code as the sequential path. Each segment's transform is the same
+ * arithmetic on the same values, and the averages see the same values in the same order, so every
+ * result is bitwise the sequential one for any block split and any flush point
+ * (WelchParallelTest). Only segments of at least {@link #PARALLEL_MIN_SEGMENT} points on more than
+ * one processor use it: shorter transforms cost less than the hand-over.
  */
 final class WelchCore {
     static {
@@ -34,7 +48,17 @@ final class WelchCore {
         CommonUtils.setThreadsBeginN_1D_FFT_4Threads(Long.MAX_VALUE);
     }
 
+    /** Shortest segment (points) transformed in parallel; below it the hand-over costs more than it saves. */
+    static final int PARALLEL_MIN_SEGMENT = 4096;
+    /** Batch memory per channel, in doubles (8 MiB): bounds the slots for long segments. */
+    private static final int BATCH_DOUBLES = 1 << 20;
+
     private final int channels;
+    private boolean parallelWanted;
+    private int lanes;
+    private DoubleFFT_1D[] laneFft;
+    private double[][][] slots;
+    private int pending;
     private double sampleRateHz;
     private WelchSettings settings;
     private int n;
@@ -107,7 +131,45 @@ final class WelchCore {
         gxyIm = channels == 2 ? new double[bins] : null;
         lagSums = new double[lags];
         recentWeights = new double[lags];
+        setUpLanes();
         reset();
+    }
+
+    /**
+     * Turns parallel transforms on or off (class description). Pending segments are settled first,
+     * so the results stay the sequential ones; may be called before or after {@link #prepare}.
+     */
+    void parallel(boolean on) {
+        if (settings != null) {
+            settle();
+        }
+        parallelWanted = on;
+        if (settings != null) {
+            setUpLanes();
+        }
+    }
+
+    /** Whether segments are being transformed in parallel (wanted, long enough, more than one processor). */
+    boolean parallelActive() {
+        return lanes > 1;
+    }
+
+    private void setUpLanes() {
+        pending = 0;
+        if (!parallelWanted || SegmentWorkers.helpers() == 0 || n < PARALLEL_MIN_SEGMENT) {
+            lanes = 1;
+            laneFft = null;
+            slots = null;
+            return;
+        }
+        lanes = 1 + SegmentWorkers.helpers();
+        int batch = Math.max(lanes, Math.min(4 * lanes, BATCH_DOUBLES / n / lanes * lanes));
+        laneFft = new DoubleFFT_1D[lanes];
+        laneFft[0] = fft;
+        for (int i = 1; i < lanes; i++) {
+            laneFft[i] = new DoubleFFT_1D(n);
+        }
+        slots = new double[batch][channels][n];
     }
 
     boolean prepared() {
@@ -123,6 +185,7 @@ final class WelchCore {
     void reset() {
         requirePrepared();
         fill = 0;
+        pending = 0;
         segments = 0;
         s0 = 0;
         java.util.Arrays.fill(gxx, 0);
@@ -165,7 +228,11 @@ final class WelchCore {
             fill += m;
             done += m;
             if (fill == n) {
-                segment();
+                if (lanes > 1) {
+                    stash();
+                } else {
+                    segment();
+                }
                 int keep = n - hop;
                 System.arraycopy(fx, hop, fx, 0, keep);
                 if (fy != null) {
@@ -177,10 +244,87 @@ final class WelchCore {
     }
 
     private void segment() {
-        transform(frame[0], workX);
+        transform(frame[0], workX, fft);
         if (channels == 2) {
-            transform(frame[1], workY);
+            transform(frame[1], workY, fft);
         }
+        average(workX, workY);
+    }
+
+    /** Parallel path: copies the full frame into the next slot; a full batch is transformed and averaged. */
+    private void stash() {
+        double[][] slot = slots[pending];
+        for (int c = 0; c < channels; c++) {
+            System.arraycopy(frame[c], 0, slot[c], 0, n);
+        }
+        pending++;
+        if (pending == slots.length) {
+            settle();
+        }
+    }
+
+    /** Transforms the pending slots on all lanes, then adds them to the averages in segment order. */
+    private void settle() {
+        int count = pending;
+        if (count == 0) {
+            return;
+        }
+        pending = 0;
+        int used = Math.min(lanes, count);
+        List<Future<?>> helpers = new ArrayList<>(used - 1);
+        for (int lane = 1; lane < used; lane++) {
+            int l = lane;
+            helpers.add(SegmentWorkers.pool().submit(() -> transformLane(l, used, count)));
+        }
+        RuntimeException failure = null;
+        try {
+            transformLane(0, used, count);
+        } catch (RuntimeException e) {
+            failure = e;
+        }
+        boolean interrupted = false;
+        for (Future<?> f : helpers) {
+            while (true) {
+                try {
+                    f.get();
+                    break;
+                } catch (InterruptedException e) {
+                    interrupted = true;
+                } catch (ExecutionException e) {
+                    if (failure == null) {
+                        Throwable t = e.getCause();
+                        failure = t instanceof RuntimeException r ? r : new IllegalStateException(t);
+                    }
+                    break;
+                }
+            }
+        }
+        if (interrupted) {
+            Thread.currentThread().interrupt();
+        }
+        if (failure != null) {
+            throw failure;
+        }
+        for (int i = 0; i < count; i++) {
+            double[][] slot = slots[i];
+            average(slot[0], channels == 2 ? slot[1] : null);
+        }
+    }
+
+    /** Lane {@code lane} of {@code used} transforms slots lane, lane + used, ... below count, in place. */
+    private void transformLane(int lane, int used, int count) {
+        DoubleFFT_1D plan = laneFft[lane];
+        for (int i = lane; i < count; i += used) {
+            for (int c = 0; c < channels; c++) {
+                transform(slots[i][c], slots[i][c], plan);
+            }
+        }
+    }
+
+    /** Adds one transformed segment (tx, and ty for two channels) to the running averages. */
+    private void average(double[] tx, double[] ty) {
+        double[] workX = tx;
+        double[] workY = ty;
         long k = ++segments;
         double alpha = settings.averaging() == WelchSettings.Averaging.LINEAR
                 ? 1.0 / k : 1.0 / Math.min(k, settings.timeConstantSegments());
@@ -232,7 +376,8 @@ final class WelchCore {
         }
     }
 
-    private void transform(double[] src, double[] work) {
+    /** Detrends and windows src into work (the two may be one array) and transforms work in place. */
+    private void transform(double[] src, double[] work, DoubleFFT_1D plan) {
         double mean = 0;
         if (settings.detrend() == WelchSettings.Detrend.CONSTANT) {
             for (int i = 0; i < n; i++) {
@@ -243,20 +388,23 @@ final class WelchCore {
         for (int i = 0; i < n; i++) {
             work[i] = (src[i] - mean) * window[i];
         }
-        fft.realForward(work);
+        plan.realForward(work);
     }
 
+    /** Full segments taken so far (those waiting in a parallel batch included). */
     long segments() {
-        return segments;
+        return segments + pending;
     }
 
     /** 1/S_0: the number of equally weighted independent segments with the same variance. */
     double effectiveAverages() {
+        settle();
         return segments == 0 ? 0 : 1 / s0;
     }
 
     /** T_eff in seconds (class description); 0 before the first segment. */
     double effectiveDurationSeconds() {
+        settle();
         if (segments == 0) {
             return 0;
         }
@@ -285,18 +433,22 @@ final class WelchCore {
     }
 
     double[] gxx() {
+        settle();
         return gxx.clone();
     }
 
     double[] gyy() {
+        settle();
         return gyy.clone();
     }
 
     double[] gxyRe() {
+        settle();
         return gxyRe.clone();
     }
 
     double[] gxyIm() {
+        settle();
         return gxyIm.clone();
     }
 }
