@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Objects;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.Future;
+import java.util.concurrent.atomic.AtomicInteger;
 import org.jtransforms.fft.DoubleFFT_1D;
 import org.jtransforms.utils.CommonUtils;
 
@@ -33,10 +34,11 @@ import org.jtransforms.utils.CommonUtils;
  * but without the no-allocation guarantee.
  *
  * <p><b>Parallel transforms</b> ({@link #parallel}, off by default; file jobs turn it on). Full
- * segments are then copied into a batch of slots; when the batch is full (or a result is asked for)
- * the caller's thread and {@link SegmentWorkers}' helpers detrend, window and transform the slots,
- * each lane with its own FFT plan, and the caller then adds them to the averages one by one in
- * segment order with the same code as the sequential path. Each segment's transform is the same
+ * segments are then copied into a batch of slots; a full batch goes to {@link SegmentWorkers}'
+ * helpers, which detrend, window and transform it (each with its own FFT plan) while the caller
+ * fills the next batch. When that one is full (or a result is asked for) the caller transforms
+ * whatever of the first batch no helper has claimed yet, waits for the rest and adds its segments
+ * to the averages one by one in segment order with the same code as the sequential path. Each segment's transform is the same
  * arithmetic on the same values, and the averages see the same values in the same order, so every
  * result is bitwise the sequential one for any block split and any flush point
  * (WelchParallelTest). Only segments of at least {@link #PARALLEL_MIN_SEGMENT} points on more than
@@ -58,7 +60,9 @@ final class WelchCore {
     private int lanes;
     private DoubleFFT_1D[] laneFft;
     private double[][][] slots;
+    private double[][][] spareSlots;
     private int pending;
+    private Batch inFlight;
     private double sampleRateHz;
     private WelchSettings settings;
     private int n;
@@ -93,6 +97,7 @@ final class WelchCore {
         if (!(sampleRateHz > 0) || !Double.isFinite(sampleRateHz)) {
             throw new IllegalArgumentException("sampleRateHz=" + sampleRateHz + " must be finite and > 0");
         }
+        awaitInFlight();
         this.sampleRateHz = sampleRateHz;
         this.settings = settings;
         n = settings.segmentLength();
@@ -155,11 +160,13 @@ final class WelchCore {
     }
 
     private void setUpLanes() {
+        awaitInFlight();
         pending = 0;
         if (!parallelWanted || SegmentWorkers.helpers() == 0 || n < PARALLEL_MIN_SEGMENT) {
             lanes = 1;
             laneFft = null;
             slots = null;
+            spareSlots = null;
             return;
         }
         lanes = 1 + SegmentWorkers.helpers();
@@ -170,6 +177,7 @@ final class WelchCore {
             laneFft[i] = new DoubleFFT_1D(n);
         }
         slots = new double[batch][channels][n];
+        spareSlots = new double[batch][channels][n];
     }
 
     boolean prepared() {
@@ -184,6 +192,7 @@ final class WelchCore {
 
     void reset() {
         requirePrepared();
+        awaitInFlight();
         fill = 0;
         pending = 0;
         segments = 0;
@@ -251,7 +260,7 @@ final class WelchCore {
         average(workX, workY);
     }
 
-    /** Parallel path: copies the full frame into the next slot; a full batch is transformed and averaged. */
+    /** Parallel path: copies the full frame into the next slot; a full batch is handed to the helpers. */
     private void stash() {
         double[][] slot = slots[pending];
         for (int c = 0; c < channels; c++) {
@@ -259,108 +268,144 @@ final class WelchCore {
         }
         pending++;
         if (pending == slots.length) {
-            settle();
+            finishInFlight();
+            startBatch();
         }
     }
 
-    /** Transforms the pending slots on all lanes, then adds them to the averages in segment order. */
-    private void settle() {
-        int count = pending;
-        if (count == 0) {
-            return;
+    /**
+     * One batch of full segments being transformed: the helpers and (when it finishes the batch) the
+     * caller claim slots one at a time, so the work balances itself.
+     */
+    private final class Batch {
+        final double[][][] slots;
+        final int count;
+        final AtomicInteger next = new AtomicInteger();
+        final List<Future<?>> helpers;
+
+        Batch(double[][][] slots, int count) {
+            this.slots = slots;
+            this.count = count;
+            int used = Math.min(lanes - 1, count);
+            helpers = new ArrayList<>(used);
+            for (int lane = 1; lane <= used; lane++) {
+                DoubleFFT_1D plan = laneFft[lane];
+                helpers.add(SegmentWorkers.pool().submit(() -> claim(plan)));
+            }
         }
-        pending = 0;
-        int used = Math.min(lanes, count);
-        List<Future<?>> helpers = new ArrayList<>(used - 1);
-        for (int lane = 1; lane < used; lane++) {
-            int l = lane;
-            helpers.add(SegmentWorkers.pool().submit(() -> transformLane(l, used, count)));
-        }
-        RuntimeException failure = null;
-        try {
-            transformLane(0, used, count);
-        } catch (RuntimeException e) {
-            failure = e;
-        }
-        boolean interrupted = false;
-        for (Future<?> f : helpers) {
-            while (true) {
-                try {
-                    f.get();
-                    break;
-                } catch (InterruptedException e) {
-                    interrupted = true;
-                } catch (ExecutionException e) {
-                    if (failure == null) {
-                        Throwable t = e.getCause();
-                        failure = t instanceof RuntimeException r ? r : new IllegalStateException(t);
-                    }
-                    break;
+
+        void claim(DoubleFFT_1D plan) {
+            for (int i; (i = next.getAndIncrement()) < count; ) {
+                for (int c = 0; c < channels; c++) {
+                    transform(slots[i][c], slots[i][c], plan);
                 }
             }
         }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
+
+        /** Transforms what is left on the caller's thread and waits for the helpers; rethrows a failure. */
+        void finish() {
+            RuntimeException failure = null;
+            try {
+                claim(laneFft[0]);
+            } catch (RuntimeException e) {
+                failure = e;
+            }
+            boolean interrupted = false;
+            for (Future<?> f : helpers) {
+                while (true) {
+                    try {
+                        f.get();
+                        break;
+                    } catch (InterruptedException e) {
+                        interrupted = true;
+                    } catch (ExecutionException e) {
+                        if (failure == null) {
+                            Throwable t = e.getCause();
+                            failure = t instanceof RuntimeException r ? r : new IllegalStateException(t);
+                        }
+                        break;
+                    }
+                }
+            }
+            if (interrupted) {
+                Thread.currentThread().interrupt();
+            }
+            if (failure != null) {
+                throw failure;
+            }
         }
-        if (failure != null) {
-            throw failure;
+    }
+
+    /** Hands the pending slots to the helpers as the batch in flight (none may be in flight). */
+    private void startBatch() {
+        inFlight = new Batch(slots, pending);
+        pending = 0;
+        double[][][] t = slots;
+        slots = spareSlots;
+        spareSlots = t;
+    }
+
+    /** Completes the batch in flight, if any, and adds its segments to the averages in order. */
+    private void finishInFlight() {
+        Batch b = inFlight;
+        if (b == null) {
+            return;
         }
-        for (int i = 0; i < count; i++) {
-            double[][] slot = slots[i];
+        inFlight = null;
+        b.finish();
+        for (int i = 0; i < b.count; i++) {
+            double[][] slot = b.slots[i];
             average(slot[0], channels == 2 ? slot[1] : null);
         }
     }
 
-    /** Lane {@code lane} of {@code used} transforms slots lane, lane + used, ... below count, in place. */
-    private void transformLane(int lane, int used, int count) {
-        DoubleFFT_1D plan = laneFft[lane];
-        for (int i = lane; i < count; i += used) {
-            for (int c = 0; c < channels; c++) {
-                transform(slots[i][c], slots[i][c], plan);
-            }
+    /** Waits for the batch in flight, if any, and drops it (reset, new settings). */
+    private void awaitInFlight() {
+        Batch b = inFlight;
+        if (b != null) {
+            inFlight = null;
+            b.finish();
+        }
+    }
+
+    /** Brings the averages up to date: the batch in flight, then the pending slots, all in order. */
+    private void settle() {
+        finishInFlight();
+        if (pending > 0) {
+            startBatch();
+            finishInFlight();
         }
     }
 
     /** Adds one transformed segment (tx, and ty for two channels) to the running averages. */
     private void average(double[] tx, double[] ty) {
-        double[] workX = tx;
-        double[] workY = ty;
         long k = ++segments;
         double alpha = settings.averaging() == WelchSettings.Averaging.LINEAR
                 ? 1.0 / k : 1.0 / Math.min(k, settings.timeConstantSegments());
         double beta = 1 - alpha;
-        for (int b = 0; b < bins; b++) {
-            double xr;
-            double xi;
-            if (b == 0) {
-                xr = workX[0];
-                xi = 0;
-            } else if (b == bins - 1) {
-                xr = workX[1];
-                xi = 0;
-            } else {
-                xr = workX[2 * b];
-                xi = workX[2 * b + 1];
+        // alpha·c·|X|² with c = scale at DC and Nyquist, 2·scale between; (alpha·c) is formed once
+        // per segment, which is the same rounding as evaluating alpha * c * p left to right.
+        double edge = alpha * scale;
+        double inner = alpha * (2 * scale);
+        int last = bins - 1;
+        if (ty == null) {
+            for (int b = 1; b < last; b++) {
+                double xr = tx[2 * b];
+                double xi = tx[2 * b + 1];
+                gxx[b] = beta * gxx[b] + inner * (xr * xr + xi * xi);
             }
-            double c = (b == 0 || b == bins - 1) ? scale : 2 * scale;
-            gxx[b] = beta * gxx[b] + alpha * c * (xr * xr + xi * xi);
-            if (channels == 2) {
-                double yr;
-                double yi;
-                if (b == 0) {
-                    yr = workY[0];
-                    yi = 0;
-                } else if (b == bins - 1) {
-                    yr = workY[1];
-                    yi = 0;
-                } else {
-                    yr = workY[2 * b];
-                    yi = workY[2 * b + 1];
-                }
-                gyy[b] = beta * gyy[b] + alpha * c * (yr * yr + yi * yi);
-                gxyRe[b] = beta * gxyRe[b] + alpha * c * (xr * yr + xi * yi);
-                gxyIm[b] = beta * gxyIm[b] + alpha * c * (xr * yi - xi * yr);
+        } else {
+            for (int b = 1; b < last; b++) {
+                addCross(b, beta, inner, tx[2 * b], tx[2 * b + 1], ty[2 * b], ty[2 * b + 1]);
             }
+        }
+        // DC (real, packed at [0]) and Nyquist (real, packed at [1]); the imaginary parts are zero.
+        if (ty == null) {
+            gxx[0] = beta * gxx[0] + edge * (tx[0] * tx[0] + 0.0 * 0.0);
+            gxx[last] = beta * gxx[last] + edge * (tx[1] * tx[1] + 0.0 * 0.0);
+        } else {
+            addCross(0, beta, edge, tx[0], 0.0, ty[0], 0.0);
+            addCross(last, beta, edge, tx[1], 0.0, ty[1], 0.0);
         }
         // Weights: every older weight is multiplied by beta, the new one is alpha.
         double b2 = beta * beta;
@@ -374,6 +419,13 @@ final class WelchCore {
         if (recentWeights.length > 0) {
             recentWeights[0] = alpha;
         }
+    }
+
+    private void addCross(int b, double beta, double ac, double xr, double xi, double yr, double yi) {
+        gxx[b] = beta * gxx[b] + ac * (xr * xr + xi * xi);
+        gyy[b] = beta * gyy[b] + ac * (yr * yr + yi * yi);
+        gxyRe[b] = beta * gxyRe[b] + ac * (xr * yr + xi * yi);
+        gxyIm[b] = beta * gxyIm[b] + ac * (xr * yi - xi * yr);
     }
 
     /** Detrends and windows src into work (the two may be one array) and transforms work in place. */
@@ -393,7 +445,7 @@ final class WelchCore {
 
     /** Full segments taken so far (those waiting in a parallel batch included). */
     long segments() {
-        return segments + pending;
+        return segments + (inFlight == null ? 0 : inFlight.count) + pending;
     }
 
     /** 1/S_0: the number of equally weighted independent segments with the same variance. */

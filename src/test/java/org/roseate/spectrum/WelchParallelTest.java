@@ -123,6 +123,62 @@ class WelchParallelTest {
         assertEquals(a.effectiveDurationSeconds(), b.effectiveDurationSeconds(), 0.0);
     }
 
+    /**
+     * Both paths against a plain transcription of the density formula (class description of
+     * WelchCore: P_k = c_k·|X_k|²/(fs·Σw²), linear running mean, scipy.signal.welch's scaling), with
+     * the same JTransforms real FFT and the same operation order, so bit for bit.
+     */
+    @Test
+    void bothPathsEqualThePlainFormulaBitwise() {
+        int n = 8192;
+        int hop = n / 2;
+        double fs = 48000;
+        SplittableRandom rnd = new SplittableRandom(41);
+        double[] x = new double[hop * 40 + 77];
+        for (int i = 0; i < x.length; i++) {
+            x[i] = 0.1 + rnd.nextGaussian();
+        }
+        double[] w = Window.HANN.coefficients(n);
+        double sumW2 = 0;
+        for (double v : w) {
+            sumW2 += v * v;
+        }
+        double scale = 1 / (fs * sumW2);
+        int bins = n / 2 + 1;
+        double[] expected = new double[bins];
+        org.jtransforms.fft.DoubleFFT_1D fft = new org.jtransforms.fft.DoubleFFT_1D(n);
+        long k = 0;
+        for (int start = 0; start + n <= x.length; start += hop) {
+            double mean = 0;
+            for (int i = 0; i < n; i++) {
+                mean += x[start + i];
+            }
+            mean /= n;
+            double[] seg = new double[n];
+            for (int i = 0; i < n; i++) {
+                seg[i] = (x[start + i] - mean) * w[i];
+            }
+            fft.realForward(seg);
+            k++;
+            double alpha = 1.0 / k;
+            double beta = 1 - alpha;
+            for (int b = 0; b < bins; b++) {
+                double re = b == 0 ? seg[0] : b == bins - 1 ? seg[1] : seg[2 * b];
+                double im = b == 0 || b == bins - 1 ? 0 : seg[2 * b + 1];
+                double c = (b == 0 || b == bins - 1) ? scale : 2 * scale;
+                expected[b] = beta * expected[b] + alpha * c * (re * re + im * im);
+            }
+        }
+        for (boolean parallel : new boolean[] {false, true}) {
+            WelchCore core = new WelchCore(1);
+            core.prepare(fs, WelchSettings.of(n));
+            core.parallel(parallel);
+            core.accept(x, 0, null, 0, 1, x.length);
+            assertEquals(k, core.segments());
+            assertArrayEquals(expected, core.gxx(), parallel ? "parallel" : "sequential");
+        }
+    }
+
     @Test
     void shortSegmentsStaySequential() {
         WelchCore core = new WelchCore(1);
