@@ -53,7 +53,7 @@ public final class CrossSpectrumEstimator {
     }
 
     /**
-     * Transforms segments of at least 4096 points on several threads when {@code on} (for long file
+     * Transforms segments of 4096 to 2^20 points on several threads when {@code on} (for long file
      * jobs; off by default, and off for live use). The results are bitwise the same either way: the
      * segments are still added to the averages one by one in order. Helper threads are daemon
      * threads that end when idle.

@@ -41,8 +41,9 @@ import org.jtransforms.utils.CommonUtils;
  * to the averages one by one in segment order with the same code as the sequential path. Each segment's transform is the same
  * arithmetic on the same values, and the averages see the same values in the same order, so every
  * result is bitwise the sequential one for any block split and any flush point
- * (WelchParallelTest). Only segments of at least {@link #PARALLEL_MIN_SEGMENT} points on more than
- * one processor use it: shorter transforms cost less than the hand-over.
+ * (WelchParallelTest). Only segments of {@link #PARALLEL_MIN_SEGMENT} to {@link #PARALLEL_MAX_SEGMENT}
+ * points on more than one processor use it: shorter transforms cost less than the hand-over, longer
+ * ones would need too much memory for the two batches (one filling, one being transformed).
  */
 final class WelchCore {
     static {
@@ -52,7 +53,12 @@ final class WelchCore {
 
     /** Shortest segment (points) transformed in parallel; below it the hand-over costs more than it saves. */
     static final int PARALLEL_MIN_SEGMENT = 4096;
-    /** Batch memory per channel, in doubles (8 MiB): bounds the slots for long segments. */
+    /**
+     * Longest segment (points) transformed in parallel: the two batches then hold at most four
+     * segments, 32 MiB per channel; longer segments stay sequential rather than multiply their memory.
+     */
+    static final int PARALLEL_MAX_SEGMENT = 1 << 20;
+    /** Memory of one batch per channel, in doubles (8 MiB), unless that is less than one slot per lane. */
     private static final int BATCH_DOUBLES = 1 << 20;
 
     private final int channels;
@@ -162,7 +168,7 @@ final class WelchCore {
     private void setUpLanes() {
         awaitInFlight();
         pending = 0;
-        if (!parallelWanted || SegmentWorkers.helpers() == 0 || n < PARALLEL_MIN_SEGMENT) {
+        if (!parallelWanted || SegmentWorkers.helpers() == 0 || n < PARALLEL_MIN_SEGMENT || n > PARALLEL_MAX_SEGMENT) {
             lanes = 1;
             laneFft = null;
             slots = null;

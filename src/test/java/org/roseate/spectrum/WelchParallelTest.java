@@ -180,10 +180,12 @@ class WelchParallelTest {
     }
 
     @Test
-    void shortSegmentsStaySequential() {
+    void shortAndVeryLongSegmentsStaySequential() {
         WelchCore core = new WelchCore(1);
         core.prepare(48000, WelchSettings.of(WelchCore.PARALLEL_MIN_SEGMENT / 2));
         core.parallel(true);
         assertFalse(core.parallelActive());
+        core.prepare(48000, WelchSettings.of(WelchCore.PARALLEL_MAX_SEGMENT * 2));
+        assertFalse(core.parallelActive(), "longer than the parallel maximum");
     }
 }
