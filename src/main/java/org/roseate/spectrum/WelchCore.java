@@ -43,7 +43,9 @@ import org.jtransforms.utils.CommonUtils;
  * result is bitwise the sequential one for any block split and any flush point
  * (WelchParallelTest). Only segments of {@link #PARALLEL_MIN_SEGMENT} to {@link #PARALLEL_MAX_SEGMENT}
  * points on more than one processor use it: shorter transforms cost less than the hand-over, longer
- * ones would need too much memory for the two batches (one filling, one being transformed).
+ * ones would need too much memory for the two batches (one filling, one being transformed). The
+ * parallel path allocates a few small objects per batch (task, futures); the no-allocation guarantee
+ * above is for the sequential path, which live use keeps.
  */
 final class WelchCore {
     static {
