@@ -29,13 +29,13 @@ public final class FileMeasure {
 
     /** Measures a file with no progress, cancel or intermediate results. */
     public static MeasureResult run(Path file, MeasureRequest request) {
-        return run(file, request, p -> { }, () -> false, r -> { });
+        return run(file, request, p -> { }, () -> false, null);
     }
 
     /**
      * @param progress  receives the fraction read, 0 … 1
      * @param cancelled polled between blocks; when true the measurement stops with {@link CancellationException}
-     * @param partial   receives intermediate results (on this thread)
+     * @param partial   receives intermediate results (on this thread); null for none (then none are computed)
      * @throws MeasureException with a one-line message naming the file for anything the file or the
      *                          request does not allow (unreadable, too short, silent, NaN, …)
      */
@@ -46,6 +46,7 @@ public final class FileMeasure {
             WavFormat f = reader.format();
             MeasurePipeline p = new MeasurePipeline(request, name, f.sampleRateHz(), f.channels(), codeFs(f.encoding()));
             p.checkLength(reader.frames());
+            p.transformInParallel(true);
             long total = reader.frames();
             long lastAverages = 0;
             long lastPublish = 0;
@@ -57,7 +58,7 @@ public final class FileMeasure {
                     p.accept(buf, blocks.frames());
                     progress.accept(p.frames() / (double) total);
                     long now = System.nanoTime();
-                    if (p.averages() != lastAverages && now - lastPublish > PUBLISH_EVERY_NANOS) {
+                    if (partial != null && p.averages() != lastAverages && now - lastPublish > PUBLISH_EVERY_NANOS) {
                         lastAverages = p.averages();
                         lastPublish = now;
                         MeasureResult r = p.result(false);

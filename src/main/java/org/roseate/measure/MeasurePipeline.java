@@ -180,6 +180,18 @@ public final class MeasurePipeline {
         frames += frameCount;
     }
 
+    /**
+     * Transforms the Welch segments on several threads (for file jobs; results are bitwise the same,
+     * see {@link WelchEstimator#transformInParallel}). Leave off for live capture.
+     */
+    public void transformInParallel(boolean on) {
+        if (welch != null) {
+            welch.transformInParallel(on);
+        } else {
+            cross.transformInParallel(on);
+        }
+    }
+
     /** Segments averaged so far. */
     public long averages() {
         return welch != null ? welch.averages() : cross.averages();

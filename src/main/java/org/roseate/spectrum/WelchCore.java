@@ -1,6 +1,11 @@
 package org.roseate.spectrum;
 
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Objects;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.Future;
+import java.util.concurrent.atomic.AtomicInteger;
 import org.jtransforms.fft.DoubleFFT_1D;
 import org.jtransforms.utils.CommonUtils;
 
@@ -27,6 +32,20 @@ import org.jtransforms.utils.CommonUtils;
  * process then runs on its caller's thread; Roseate has no other). Other even lengths go through
  * JTransforms' mixed-radix or Bluestein code, which allocates work arrays on every segment; they work,
  * but without the no-allocation guarantee.
+ *
+ * <p><b>Parallel transforms</b> ({@link #parallel}, off by default; file jobs turn it on). Full
+ * segments are then copied into a batch of slots; a full batch goes to {@link SegmentWorkers}'
+ * helpers, which detrend, window and transform it (each with its own FFT plan) while the caller
+ * fills the next batch. When that one is full (or a result is asked for) the caller transforms
+ * whatever of the first batch no helper has claimed yet, waits for the rest and adds its segments
+ * to the averages one by one in segment order with the same code as the sequential path. Each segment's transform is the same
+ * arithmetic on the same values, and the averages see the same values in the same order, so every
+ * result is bitwise the sequential one for any block split and any flush point
+ * (WelchParallelTest). Only segments of {@link #PARALLEL_MIN_SEGMENT} to {@link #PARALLEL_MAX_SEGMENT}
+ * points on more than one processor use it: shorter transforms cost less than the hand-over, longer
+ * ones would need too much memory for the two batches (one filling, one being transformed). The
+ * parallel path allocates a few small objects per batch (task, futures); the no-allocation guarantee
+ * above is for the sequential path, which live use keeps.
  */
 final class WelchCore {
     static {
@@ -34,7 +53,24 @@ final class WelchCore {
         CommonUtils.setThreadsBeginN_1D_FFT_4Threads(Long.MAX_VALUE);
     }
 
+    /** Shortest segment (points) transformed in parallel; below it the hand-over costs more than it saves. */
+    static final int PARALLEL_MIN_SEGMENT = 4096;
+    /**
+     * Longest segment (points) transformed in parallel: the two batches then hold at most four
+     * segments, 32 MiB per channel; longer segments stay sequential rather than multiply their memory.
+     */
+    static final int PARALLEL_MAX_SEGMENT = 1 << 20;
+    /** Memory of one batch per channel, in doubles (8 MiB), unless that is less than one slot per lane. */
+    private static final int BATCH_DOUBLES = 1 << 20;
+
     private final int channels;
+    private boolean parallelWanted;
+    private int lanes;
+    private DoubleFFT_1D[] laneFft;
+    private double[][][] slots;
+    private double[][][] spareSlots;
+    private int pending;
+    private Batch inFlight;
     private double sampleRateHz;
     private WelchSettings settings;
     private int n;
@@ -69,6 +105,7 @@ final class WelchCore {
         if (!(sampleRateHz > 0) || !Double.isFinite(sampleRateHz)) {
             throw new IllegalArgumentException("sampleRateHz=" + sampleRateHz + " must be finite and > 0");
         }
+        awaitInFlight();
         this.sampleRateHz = sampleRateHz;
         this.settings = settings;
         n = settings.segmentLength();
@@ -107,7 +144,48 @@ final class WelchCore {
         gxyIm = channels == 2 ? new double[bins] : null;
         lagSums = new double[lags];
         recentWeights = new double[lags];
+        setUpLanes();
         reset();
+    }
+
+    /**
+     * Turns parallel transforms on or off (class description). Pending segments are settled first,
+     * so the results stay the sequential ones; may be called before or after {@link #prepare}.
+     */
+    void parallel(boolean on) {
+        if (settings != null) {
+            settle();
+        }
+        parallelWanted = on;
+        if (settings != null) {
+            setUpLanes();
+        }
+    }
+
+    /** Whether segments are being transformed in parallel (wanted, long enough, more than one processor). */
+    boolean parallelActive() {
+        return lanes > 1;
+    }
+
+    private void setUpLanes() {
+        awaitInFlight();
+        pending = 0;
+        if (!parallelWanted || SegmentWorkers.helpers() == 0 || n < PARALLEL_MIN_SEGMENT || n > PARALLEL_MAX_SEGMENT) {
+            lanes = 1;
+            laneFft = null;
+            slots = null;
+            spareSlots = null;
+            return;
+        }
+        lanes = 1 + SegmentWorkers.helpers();
+        int batch = Math.max(lanes, Math.min(4 * lanes, BATCH_DOUBLES / n / lanes * lanes));
+        laneFft = new DoubleFFT_1D[lanes];
+        laneFft[0] = fft;
+        for (int i = 1; i < lanes; i++) {
+            laneFft[i] = new DoubleFFT_1D(n);
+        }
+        slots = new double[batch][channels][n];
+        spareSlots = new double[batch][channels][n];
     }
 
     boolean prepared() {
@@ -122,7 +200,9 @@ final class WelchCore {
 
     void reset() {
         requirePrepared();
+        awaitInFlight();
         fill = 0;
+        pending = 0;
         segments = 0;
         s0 = 0;
         java.util.Arrays.fill(gxx, 0);
@@ -165,7 +245,11 @@ final class WelchCore {
             fill += m;
             done += m;
             if (fill == n) {
-                segment();
+                if (lanes > 1) {
+                    stash();
+                } else {
+                    segment();
+                }
                 int keep = n - hop;
                 System.arraycopy(fx, hop, fx, 0, keep);
                 if (fy != null) {
@@ -177,46 +261,159 @@ final class WelchCore {
     }
 
     private void segment() {
-        transform(frame[0], workX);
+        transform(frame[0], workX, fft);
         if (channels == 2) {
-            transform(frame[1], workY);
+            transform(frame[1], workY, fft);
         }
+        average(workX, workY);
+    }
+
+    /** Parallel path: copies the full frame into the next slot; a full batch is handed to the helpers. */
+    private void stash() {
+        double[][] slot = slots[pending];
+        for (int c = 0; c < channels; c++) {
+            System.arraycopy(frame[c], 0, slot[c], 0, n);
+        }
+        pending++;
+        if (pending == slots.length) {
+            finishInFlight();
+            startBatch();
+        }
+    }
+
+    /**
+     * One batch of full segments being transformed: the helpers and (when it finishes the batch) the
+     * caller claim slots one at a time, so the work balances itself.
+     */
+    private final class Batch {
+        final double[][][] slots;
+        final int count;
+        final AtomicInteger next = new AtomicInteger();
+        final List<Future<?>> helpers;
+
+        Batch(double[][][] slots, int count) {
+            this.slots = slots;
+            this.count = count;
+            int used = Math.min(lanes - 1, count);
+            helpers = new ArrayList<>(used);
+            for (int lane = 1; lane <= used; lane++) {
+                DoubleFFT_1D plan = laneFft[lane];
+                helpers.add(SegmentWorkers.pool().submit(() -> claim(plan)));
+            }
+        }
+
+        void claim(DoubleFFT_1D plan) {
+            for (int i; (i = next.getAndIncrement()) < count; ) {
+                for (int c = 0; c < channels; c++) {
+                    transform(slots[i][c], slots[i][c], plan);
+                }
+            }
+        }
+
+        /** Transforms what is left on the caller's thread and waits for the helpers; rethrows a failure. */
+        void finish() {
+            RuntimeException failure = null;
+            try {
+                claim(laneFft[0]);
+            } catch (RuntimeException e) {
+                failure = e;
+            }
+            boolean interrupted = false;
+            for (Future<?> f : helpers) {
+                while (true) {
+                    try {
+                        f.get();
+                        break;
+                    } catch (InterruptedException e) {
+                        interrupted = true;
+                    } catch (ExecutionException e) {
+                        if (failure == null) {
+                            Throwable t = e.getCause();
+                            failure = t instanceof RuntimeException r ? r : new IllegalStateException(t);
+                        }
+                        break;
+                    }
+                }
+            }
+            if (interrupted) {
+                Thread.currentThread().interrupt();
+            }
+            if (failure != null) {
+                throw failure;
+            }
+        }
+    }
+
+    /** Hands the pending slots to the helpers as the batch in flight (none may be in flight). */
+    private void startBatch() {
+        inFlight = new Batch(slots, pending);
+        pending = 0;
+        double[][][] t = slots;
+        slots = spareSlots;
+        spareSlots = t;
+    }
+
+    /** Completes the batch in flight, if any, and adds its segments to the averages in order. */
+    private void finishInFlight() {
+        Batch b = inFlight;
+        if (b == null) {
+            return;
+        }
+        inFlight = null;
+        b.finish();
+        for (int i = 0; i < b.count; i++) {
+            double[][] slot = b.slots[i];
+            average(slot[0], channels == 2 ? slot[1] : null);
+        }
+    }
+
+    /** Waits for the batch in flight, if any, and drops it (reset, new settings). */
+    private void awaitInFlight() {
+        Batch b = inFlight;
+        if (b != null) {
+            inFlight = null;
+            b.finish();
+        }
+    }
+
+    /** Brings the averages up to date: the batch in flight, then the pending slots, all in order. */
+    private void settle() {
+        finishInFlight();
+        if (pending > 0) {
+            startBatch();
+            finishInFlight();
+        }
+    }
+
+    /** Adds one transformed segment (tx, and ty for two channels) to the running averages. */
+    private void average(double[] tx, double[] ty) {
         long k = ++segments;
         double alpha = settings.averaging() == WelchSettings.Averaging.LINEAR
                 ? 1.0 / k : 1.0 / Math.min(k, settings.timeConstantSegments());
         double beta = 1 - alpha;
-        for (int b = 0; b < bins; b++) {
-            double xr;
-            double xi;
-            if (b == 0) {
-                xr = workX[0];
-                xi = 0;
-            } else if (b == bins - 1) {
-                xr = workX[1];
-                xi = 0;
-            } else {
-                xr = workX[2 * b];
-                xi = workX[2 * b + 1];
+        // alpha·c·|X|² with c = scale at DC and Nyquist, 2·scale between; (alpha·c) is formed once
+        // per segment, which is the same rounding as evaluating alpha * c * p left to right.
+        double edge = alpha * scale;
+        double inner = alpha * (2 * scale);
+        int last = bins - 1;
+        if (ty == null) {
+            for (int b = 1; b < last; b++) {
+                double xr = tx[2 * b];
+                double xi = tx[2 * b + 1];
+                gxx[b] = beta * gxx[b] + inner * (xr * xr + xi * xi);
             }
-            double c = (b == 0 || b == bins - 1) ? scale : 2 * scale;
-            gxx[b] = beta * gxx[b] + alpha * c * (xr * xr + xi * xi);
-            if (channels == 2) {
-                double yr;
-                double yi;
-                if (b == 0) {
-                    yr = workY[0];
-                    yi = 0;
-                } else if (b == bins - 1) {
-                    yr = workY[1];
-                    yi = 0;
-                } else {
-                    yr = workY[2 * b];
-                    yi = workY[2 * b + 1];
-                }
-                gyy[b] = beta * gyy[b] + alpha * c * (yr * yr + yi * yi);
-                gxyRe[b] = beta * gxyRe[b] + alpha * c * (xr * yr + xi * yi);
-                gxyIm[b] = beta * gxyIm[b] + alpha * c * (xr * yi - xi * yr);
+        } else {
+            for (int b = 1; b < last; b++) {
+                addCross(b, beta, inner, tx[2 * b], tx[2 * b + 1], ty[2 * b], ty[2 * b + 1]);
             }
+        }
+        // DC (real, packed at [0]) and Nyquist (real, packed at [1]); the imaginary parts are zero.
+        if (ty == null) {
+            gxx[0] = beta * gxx[0] + edge * (tx[0] * tx[0] + 0.0 * 0.0);
+            gxx[last] = beta * gxx[last] + edge * (tx[1] * tx[1] + 0.0 * 0.0);
+        } else {
+            addCross(0, beta, edge, tx[0], 0.0, ty[0], 0.0);
+            addCross(last, beta, edge, tx[1], 0.0, ty[1], 0.0);
         }
         // Weights: every older weight is multiplied by beta, the new one is alpha.
         double b2 = beta * beta;
@@ -232,7 +429,15 @@ final class WelchCore {
         }
     }
 
-    private void transform(double[] src, double[] work) {
+    private void addCross(int b, double beta, double ac, double xr, double xi, double yr, double yi) {
+        gxx[b] = beta * gxx[b] + ac * (xr * xr + xi * xi);
+        gyy[b] = beta * gyy[b] + ac * (yr * yr + yi * yi);
+        gxyRe[b] = beta * gxyRe[b] + ac * (xr * yr + xi * yi);
+        gxyIm[b] = beta * gxyIm[b] + ac * (xr * yi - xi * yr);
+    }
+
+    /** Detrends and windows src into work (the two may be one array) and transforms work in place. */
+    private void transform(double[] src, double[] work, DoubleFFT_1D plan) {
         double mean = 0;
         if (settings.detrend() == WelchSettings.Detrend.CONSTANT) {
             for (int i = 0; i < n; i++) {
@@ -243,20 +448,23 @@ final class WelchCore {
         for (int i = 0; i < n; i++) {
             work[i] = (src[i] - mean) * window[i];
         }
-        fft.realForward(work);
+        plan.realForward(work);
     }
 
+    /** Full segments taken so far (those waiting in a parallel batch included). */
     long segments() {
-        return segments;
+        return segments + (inFlight == null ? 0 : inFlight.count) + pending;
     }
 
     /** 1/S_0: the number of equally weighted independent segments with the same variance. */
     double effectiveAverages() {
+        settle();
         return segments == 0 ? 0 : 1 / s0;
     }
 
     /** T_eff in seconds (class description); 0 before the first segment. */
     double effectiveDurationSeconds() {
+        settle();
         if (segments == 0) {
             return 0;
         }
@@ -285,18 +493,22 @@ final class WelchCore {
     }
 
     double[] gxx() {
+        settle();
         return gxx.clone();
     }
 
     double[] gyy() {
+        settle();
         return gyy.clone();
     }
 
     double[] gxyRe() {
+        settle();
         return gxyRe.clone();
     }
 
     double[] gxyIm() {
+        settle();
         return gxyIm.clone();
     }
 }

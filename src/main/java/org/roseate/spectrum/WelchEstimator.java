@@ -60,6 +60,16 @@ public final class WelchEstimator {
         }
     }
 
+    /**
+     * Transforms segments of 4096 to 2^20 points on several threads when {@code on} (for long file
+     * jobs; off by default, and off for live use). The results are bitwise the same either way: the
+     * segments are still added to the averages one by one in order. Helper threads are daemon
+     * threads that end when idle.
+     */
+    public void transformInParallel(boolean on) {
+        core.parallel(on);
+    }
+
     /** Segments averaged so far. */
     public long averages() {
         return core.segments();

@@ -32,6 +32,17 @@ public class WelchBench {
     @Param("target/bench-data")
     public String dataDir;
 
+    /** Segment length in points (default the shared {@code BenchData.WELCH_SEGMENT}). */
+    @Param("8192")
+    public int segment;
+
+    /**
+     * Transform segments on several threads ({@code WelchEstimator.transformInParallel}, as file
+     * measurements do); e.g. {@code -p segment=65536 -p parallel=false,true}.
+     */
+    @Param("false")
+    public boolean parallel;
+
     private double[] x;
     private WelchEstimator welch;
 
@@ -39,7 +50,8 @@ public class WelchBench {
     public void setup() throws Exception {
         x = BenchData.signal(java.nio.file.Path.of(dataDir));
         welch = new WelchEstimator();
-        welch.prepare(BenchData.RATE_HZ, WelchSettings.of(BenchData.WELCH_SEGMENT));
+        welch.prepare(BenchData.RATE_HZ, WelchSettings.of(segment));
+        welch.transformInParallel(parallel);
     }
 
     @Benchmark
