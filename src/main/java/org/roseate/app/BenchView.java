@@ -109,6 +109,8 @@ final class BenchView {
 
     private final MainWindow window;
     private final BorderPane root = new BorderPane();
+    /** True when the idle lines were skipped while the bench was hidden; redrawn when it shows. */
+    private boolean idleStale;
     // signal out
     private final ComboBox<Source> source = new ComboBox<>(FXCollections.observableArrayList(Source.values()));
     private final Label fileB = new Label("no design B loaded");
@@ -197,6 +199,16 @@ final class BenchView {
         }
         buildLayout();
         updateLevelText();
+        root.visibleProperty().addListener((o, a, b) -> {
+            if (b && idleStale) {
+                showIdle();
+            }
+        });
+        root.sceneProperty().addListener((o, a, b) -> {
+            if (b != null && idleStale) {
+                showIdle();
+            }
+        });
         showIdle();
         poll = new AnimationTimer() {
             @Override
@@ -677,6 +689,13 @@ final class BenchView {
         if (shown != null && live != null) {
             return;
         }
+        if (root.getScene() == null || !root.isVisible()) {
+            // The bench is not on show (not yet in the scene, or another tab is): the design's band
+            // integrals are worth computing only when the bench is looked at, not at every edit.
+            idleStale = true;
+            return;
+        }
+        idleStale = false;
         BandTable table = window.settings().table();
         List<Band> bandList = table.bands();
         int ref = 0;

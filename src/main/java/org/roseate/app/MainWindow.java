@@ -126,9 +126,23 @@ final class MainWindow {
         return scene;
     }
 
+    /**
+     * A tab whose content joins the scene when the tab is first selected: the views are all built
+     * at start (their state and listeners exist from the first moment), but CSS and layout of the
+     * hidden ones would otherwise be part of the first frame, about half of the time to the first
+     * curve on these machines (issue 17, target 6).
+     */
     private static Tab tab(String name, javafx.scene.Node content) {
-        Tab t = new Tab(name, content);
+        Tab t = new Tab(name);
         t.setClosable(false);
+        if (t.isSelected()) {
+            t.setContent(content);
+        }
+        t.selectedProperty().addListener((o, was, is) -> {
+            if (is && t.getContent() == null) {
+                t.setContent(content);
+            }
+        });
         return t;
     }
 

@@ -17,6 +17,8 @@ public final class CircuitModel {
     private final Design design;
     private final List<StageModel> stages;
     private final int scratchDepth;
+    /** One thread's buffers for {@link #magnitudeSquared(double)}; created on a thread's first call. */
+    private final ThreadLocal<Scratch> scalarScratch = ThreadLocal.withInitial(this::newScratch);
 
     private CircuitModel(Design design, String source) {
         this.design = design;
@@ -51,10 +53,9 @@ public final class CircuitModel {
 
     /** H(j·2π·hz) of the cascade; hz &gt; 0. */
     public Complex response(double hz) {
-        double[] re = new double[1];
-        double[] im = new double[1];
-        response(new double[] {hz}, re, im);
-        return new Complex(re[0], im[0]);
+        Scratch sc = scalarScratch.get();
+        evaluate(hz, sc);
+        return new Complex(sc.h()[2], sc.h()[3]);
     }
 
     /**
@@ -64,25 +65,44 @@ public final class CircuitModel {
      * @param hz frequencies in Hz, each finite and &gt; 0
      */
     public void response(double[] hz, double[] re, double[] im) {
-        double[][] scratch = {new double[scratchDepth], new double[scratchDepth], new double[2], new double[2]};
-        double[] h = new double[2];
+        Scratch sc = newScratch();
+        for (int i = 0; i < hz.length; i++) {
+            evaluate(hz[i], sc);
+            re[i] = sc.h()[2];
+            im[i] = sc.h()[3];
+        }
+    }
+
+    /**
+     * Buffers for one thread's evaluations: the stages' stacks, one stage's H and the product
+     * (h[0..1] and h[2..3]) and each stage's nodal workspace.
+     */
+    private record Scratch(double[][] stack, double[] h, NodalModel.Workspace[] nodal) {
+    }
+
+    private Scratch newScratch() {
         NodalModel.Workspace[] nodal = new NodalModel.Workspace[stages.size()];
         for (int k = 0; k < nodal.length; k++) {
             nodal[k] = stages.get(k).nodalWorkspace();
         }
-        for (int i = 0; i < hz.length; i++) {
-            double w = 2 * Math.PI * hz[i];
-            double accR = 1;
-            double accI = 0;
-            for (int k = 0; k < nodal.length; k++) {
-                stages.get(k).evaluate(w, scratch, nodal[k], h);
-                double t = accR * h[0] - accI * h[1];
-                accI = accR * h[1] + accI * h[0];
-                accR = t;
-            }
-            re[i] = accR;
-            im[i] = accI;
+        return new Scratch(new double[][] {new double[scratchDepth], new double[scratchDepth], new double[2], new double[2]},
+                new double[4], nodal);
+    }
+
+    /** H(j·2π·hz) of the cascade into sc.h[2] (real) and sc.h[3] (imaginary). */
+    private void evaluate(double hz, Scratch sc) {
+        double w = 2 * Math.PI * hz;
+        double[] h = sc.h();
+        double accR = 1;
+        double accI = 0;
+        for (int k = 0; k < sc.nodal().length; k++) {
+            stages.get(k).evaluate(w, sc.stack(), sc.nodal()[k], h);
+            double t = accR * h[0] - accI * h[1];
+            accI = accR * h[1] + accI * h[0];
+            accR = t;
         }
+        h[2] = accR;
+        h[3] = accI;
     }
 
     /** The response on the given frequencies, as a record with dB and degrees. */
@@ -93,10 +113,17 @@ public final class CircuitModel {
         return new FrequencyResponse(hz.clone(), re, im);
     }
 
-    /** |H(j·2π·hz)|², the power gain for noise at that frequency. */
+    /**
+     * |H(j·2π·hz)|², the power gain for noise at that frequency. Band integrals and slope fits call
+     * this point by point, thousands of times per analysis, so it reuses one set of buffers per
+     * thread ({@link #scalarScratch}) instead of allocating the stages' workspaces at each call; the
+     * arithmetic is the same as {@link #response(double[], double[], double[])}'s.
+     */
     public double magnitudeSquared(double hz) {
-        Complex h = response(hz);
-        return h.re() * h.re() + h.im() * h.im();
+        Scratch sc = scalarScratch.get();
+        evaluate(hz, sc);
+        double[] h = sc.h();
+        return h[2] * h[2] + h[3] * h[3];
     }
 
     /** The cascade's rational function in x = s/ω0, ω0 = {@link #OMEGA_SCALE_RAD_PER_S}. */

@@ -36,7 +36,7 @@ public class BudgetBench {
     private double[] points;
 
     /** The 40-part design as design-file text (our own invented values). */
-    static String fortyPartThreeOpampDesign() {
+    public static String fortyPartThreeOpampDesign() {
         StringBuilder b = new StringBuilder("{\"name\": \"forty parts, three op-amps\", "
                 + "\"source\": {\"densityVPerRtHz\": 150e-6, \"flickerCornerHz\": 250}, \"stages\": ["
                 + "{\"kind\": \"circuit\", \"input\": \"n0\", \"output\": \"out\", \"branches\": {");
