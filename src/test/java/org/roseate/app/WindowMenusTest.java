@@ -223,10 +223,14 @@ class WindowMenusTest {
         assertEquals(List.of("Keyboard shortcuts", "Safety: loud noise, tweeters and hearing", "What each reading means"), help);
 
         // A focused text field's background fills: the focus ring's colour is there, the error rose is not.
-        List<Color> fills = RoseateWindowTest.fx(() -> {
-            javafx.scene.control.TextField f = window.tools().abx().trials();
+        // The tab is selected first, as a user does: a tab's content joins the scene when first selected.
+        RoseateWindowTest.fxRun(() -> {
             window.tabs().getSelectionModel().select(4);
             window.tools().select("ABX test");
+        });
+        WaitForAsyncUtils.waitForFxEvents();
+        List<Color> fills = RoseateWindowTest.fx(() -> {
+            javafx.scene.control.TextField f = window.tools().abx().trials();
             f.requestFocus();
             f.applyCss();
             List<Color> c = new ArrayList<>();
