@@ -4,7 +4,6 @@ import java.nio.file.Path;
 import java.time.LocalTime;
 import java.time.format.DateTimeFormatter;
 import java.util.ArrayList;
-import java.util.EnumMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -50,7 +49,6 @@ import org.roseate.measure.MeasureRequest;
 import org.roseate.measure.MeasureResult;
 import org.roseate.model.BandPower;
 import org.roseate.model.CircuitModel;
-import org.roseate.noise.ChainSettings;
 import org.roseate.noise.NoiseChain;
 import org.roseate.spectrum.WelchSettings;
 
@@ -144,7 +142,7 @@ final class BenchView {
             -1, 1, 1);
     private final Label pointer = new Label("Point at a band for its reading; wheel zooms, drag pans, double click resets.");
     private final AnimationTimer poll;
-    private final Map<Source, NoiseChain> prototypes = new EnumMap<>(Source.class);
+    private final ChainPrototypes<Source> prototypes;
     private CircuitModel modelB;
     private PlaybackEngine engine;
     private boolean starting;
@@ -155,6 +153,12 @@ final class BenchView {
 
     BenchView(MainWindow window) {
         this.window = window;
+        prototypes = new ChainPrototypes<>(Source.class, k -> switch (k) {
+            case WHITE -> NoiseChain::white;
+            case IDEAL_PINK -> NoiseChain::idealPink;
+            case DESIGN_A -> ChainPrototypes.design(window.model());
+            case DESIGN_B -> ChainPrototypes.design(modelB);
+        });
         source.setValue(Source.DESIGN_A);
         source.valueProperty().addListener((o, a, b) -> switchSource());
         level.setBlockIncrement(1);
@@ -179,7 +183,7 @@ final class BenchView {
         input.setValue(DEFAULT_INPUT);
         refreshDevices();
         window.modelProperty().addListener((o, a, b) -> {
-            prototypes.remove(Source.DESIGN_A);
+            prototypes.forget(Source.DESIGN_A);
             if (source.getValue() == Source.DESIGN_A) {
                 switchSource();
             }
@@ -363,7 +367,7 @@ final class BenchView {
     /** Loads design B from a file without asking. */
     void setModelB(Path p) {
         modelB = CircuitModel.of(DesignReader.read(p), p.getFileName().toString());
-        prototypes.remove(Source.DESIGN_B);
+        prototypes.forget(Source.DESIGN_B);
         fileB.setText(p.getFileName() + ": " + modelB.design().name());
         if (source.getValue() == Source.DESIGN_B) {
             switchSource();
@@ -385,27 +389,12 @@ final class BenchView {
 
     /** The chain for a source at a level (each source designed once, then re-levelled); null if none. */
     private NoiseChain chainFor(Source kind, double levelDbfs) {
-        NoiseChain p = prototypes.get(kind);
-        if (p == null) {
-            ChainSettings s = new ChainSettings(ListenView.RATE_HZ, ListenView.CHANNELS, false, ListenView.SEED, levelDbfs);
-            try {
-                p = switch (kind) {
-                    case WHITE -> NoiseChain.white(s);
-                    case IDEAL_PINK -> NoiseChain.idealPink(s);
-                    case DESIGN_A -> window.model() == null ? null
-                            : NoiseChain.design(window.model().zpk(), s, window.model().design().name());
-                    case DESIGN_B -> modelB == null ? null : NoiseChain.design(modelB.zpk(), s, modelB.design().name());
-                };
-            } catch (UnrenderableModelException e) {
-                outInfo.setText("Cannot play " + kind + ": " + e.getMessage());
-                return null;
-            }
-            if (p == null) {
-                return null;
-            }
-            prototypes.put(kind, p);
+        try {
+            return prototypes.at(kind, levelDbfs);
+        } catch (UnrenderableModelException e) {
+            outInfo.setText("Cannot play " + kind + ": " + e.getMessage());
+            return null;
         }
-        return p.withLevel(levelDbfs);
     }
 
     void togglePlay() {

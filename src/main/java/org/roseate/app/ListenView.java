@@ -3,9 +3,7 @@ package org.roseate.app;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.EnumMap;
 import java.util.Locale;
-import java.util.Map;
 import java.util.concurrent.CompletableFuture;
 import javafx.animation.AnimationTimer;
 import javafx.application.Platform;
@@ -36,7 +34,6 @@ import org.roseate.circuit.DesignException;
 import org.roseate.circuit.DesignReader;
 import org.roseate.digital.UnrenderableModelException;
 import org.roseate.model.CircuitModel;
-import org.roseate.noise.ChainSettings;
 import org.roseate.noise.NoiseChain;
 import org.roseate.spectrum.BandLevel;
 
@@ -98,7 +95,7 @@ final class ListenView {
     private final BandChart meter = new BandChart("Live band meter: what is playing", "Level re the 1 kHz band (dB)", "Playing");
     private final MeterRing ring = new MeterRing(1 << 17);
     private final AnimationTimer poll;
-    private final Map<SourceKind, NoiseChain> prototypes = new EnumMap<>(SourceKind.class);
+    private final ChainPrototypes<SourceKind> prototypes;
     private CircuitModel modelB;
     private PlaybackEngine engine;
     private BandMeter bandMeter;
@@ -108,6 +105,12 @@ final class ListenView {
 
     ListenView(MainWindow window) {
         this.window = window;
+        prototypes = new ChainPrototypes<>(SourceKind.class, k -> switch (k) {
+            case WHITE -> NoiseChain::white;
+            case IDEAL_PINK -> NoiseChain::idealPink;
+            case DESIGN -> ChainPrototypes.design(window.model());
+            case FILE -> ChainPrototypes.design(modelB);
+        });
         sourceA.setValue(SourceKind.DESIGN);
         sourceB.setValue(SourceKind.IDEAL_PINK);
         ToggleGroup ab = new ToggleGroup();
@@ -141,7 +144,7 @@ final class ListenView {
         device.setValue(Devices_DEFAULT);
         refreshDevices();
         window.modelProperty().addListener((o, a, b) -> {
-            prototypes.remove(SourceKind.DESIGN);
+            prototypes.forget(SourceKind.DESIGN);
             if (currentKind() == SourceKind.DESIGN) {
                 switchSource();
             }
@@ -263,7 +266,7 @@ final class ListenView {
         window.prompts().openFile(window.stage(), "Design file for B", "Design files (*.json)", "*.json").ifPresent(p -> {
             try {
                 modelB = CircuitModel.of(DesignReader.read(p), p.getFileName().toString());
-                prototypes.remove(SourceKind.FILE);
+                prototypes.forget(SourceKind.FILE);
                 fileB.setText(p.getFileName() + ": " + modelB.design().name());
                 sourceB.setValue(SourceKind.FILE);
                 switchSource();
@@ -276,7 +279,7 @@ final class ListenView {
     /** Loads B from a file without asking (for tests and the compare view). */
     void setModelB(Path p) {
         modelB = CircuitModel.of(DesignReader.read(p), p.getFileName().toString());
-        prototypes.remove(SourceKind.FILE);
+        prototypes.forget(SourceKind.FILE);
         fileB.setText(p.getFileName() + ": " + modelB.design().name());
     }
 
@@ -290,27 +293,12 @@ final class ListenView {
      * so A and B always play at the same RMS level.
      */
     NoiseChain chainFor(SourceKind kind, double levelDbfs) {
-        NoiseChain p = prototypes.get(kind);
-        if (p == null) {
-            ChainSettings s = new ChainSettings(RATE_HZ, CHANNELS, false, SEED, levelDbfs);
-            try {
-                p = switch (kind) {
-                    case WHITE -> NoiseChain.white(s);
-                    case IDEAL_PINK -> NoiseChain.idealPink(s);
-                    case DESIGN -> window.model() == null ? null
-                            : NoiseChain.design(window.model().zpk(), s, window.model().design().name());
-                    case FILE -> modelB == null ? null : NoiseChain.design(modelB.zpk(), s, modelB.design().name());
-                };
-            } catch (UnrenderableModelException e) {
-                info.setText("Cannot play " + kind + ": " + e.getMessage());
-                return null;
-            }
-            if (p == null) {
-                return null;
-            }
-            prototypes.put(kind, p);
+        try {
+            return prototypes.at(kind, levelDbfs);
+        } catch (UnrenderableModelException e) {
+            info.setText("Cannot play " + kind + ": " + e.getMessage());
+            return null;
         }
-        return p.withLevel(levelDbfs);
     }
 
     double levelDbfs() {
