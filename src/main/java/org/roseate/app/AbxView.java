@@ -24,10 +24,7 @@ import javafx.scene.layout.BorderPane;
 import javafx.scene.layout.GridPane;
 import javafx.scene.layout.HBox;
 import javafx.scene.layout.VBox;
-import org.roseate.audio.Devices;
-import org.roseate.audio.OutputLine;
 import org.roseate.audio.PlaybackEngine;
-import org.roseate.audio.PlaybackSettings;
 import org.roseate.circuit.DesignReader;
 import org.roseate.io.AtomicOutput;
 import org.roseate.listen.AbxLog;
@@ -433,9 +430,7 @@ final class AbxView {
 
             @Override
             public void open() {
-                OutputLine line = Devices.openOutput(null, RATE_HZ, 2, (int) (ListenView.BUFFER_SECONDS * RATE_HZ));
-                engine = new PlaybackEngine(line, new Silence(RATE_HZ, 2), PlaybackSettings.defaults());
-                engine.start();
+                engine = Players.start(null, new Silence(RATE_HZ, ListenView.CHANNELS));
             }
 
             @Override

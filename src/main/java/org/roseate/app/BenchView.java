@@ -29,12 +29,9 @@ import javafx.scene.layout.HBox;
 import javafx.scene.layout.Priority;
 import javafx.scene.layout.VBox;
 import javafx.scene.paint.Color;
-import org.roseate.audio.AudioDeviceException;
 import org.roseate.audio.Devices;
 import org.roseate.audio.InputLine;
-import org.roseate.audio.OutputLine;
 import org.roseate.audio.PlaybackEngine;
-import org.roseate.audio.PlaybackSettings;
 import org.roseate.bands.Band;
 import org.roseate.bands.BandTable;
 import org.roseate.circuit.DesignException;
@@ -423,18 +420,11 @@ final class BenchView {
         String dev = DEFAULT_OUTPUT.equals(output.getValue()) ? null : output.getValue();
         starting = true;
         outInfo.setText("Opening the output…");
-        CompletableFuture.supplyAsync(() -> {
-            OutputLine line = Devices.openOutput(dev, ListenView.RATE_HZ, ListenView.CHANNELS,
-                    (int) (ListenView.BUFFER_SECONDS * ListenView.RATE_HZ));
-            PlaybackEngine e = new PlaybackEngine(line, chain, PlaybackSettings.defaults());
-            e.start();
-            return e;
-        }, window.tasks().devices()).whenComplete((e, ex) -> Platform.runLater(() -> {
+        CompletableFuture.supplyAsync(() -> Players.start(dev, chain), window.tasks().devices())
+                .whenComplete((e, ex) -> Platform.runLater(() -> {
             starting = false;
             if (ex != null) {
-                Throwable c = ex.getCause() != null ? ex.getCause() : ex;
-                outInfo.setText("Cannot play: " + c.getMessage()
-                        + (c instanceof AudioDeviceException ? " (choose another output)" : ""));
+                outInfo.setText(Players.failure(ex, "choose another output"));
                 return;
             }
             engine = e;

@@ -23,11 +23,8 @@ import javafx.scene.layout.GridPane;
 import javafx.scene.layout.HBox;
 import javafx.scene.layout.Priority;
 import javafx.scene.layout.VBox;
-import org.roseate.audio.AudioDeviceException;
 import org.roseate.audio.Devices;
-import org.roseate.audio.OutputLine;
 import org.roseate.audio.PlaybackEngine;
-import org.roseate.audio.PlaybackSettings;
 import org.roseate.bands.Band;
 import org.roseate.bands.BandTable;
 import org.roseate.circuit.DesignException;
@@ -362,17 +359,11 @@ final class ListenView {
         TapSource tap = new TapSource(chain, ring, id);
         starting = true;
         info.setText("Opening the device…");
-        CompletableFuture.supplyAsync(() -> {
-            OutputLine line = Devices.openOutput(dev, RATE_HZ, CHANNELS, (int) (BUFFER_SECONDS * RATE_HZ));
-            PlaybackEngine e = new PlaybackEngine(line, tap, PlaybackSettings.defaults());
-            e.start();
-            return e;
-        }, window.tasks().devices()).whenComplete((e, ex) -> Platform.runLater(() -> {
+        CompletableFuture.supplyAsync(() -> Players.start(dev, tap), window.tasks().devices())
+                .whenComplete((e, ex) -> Platform.runLater(() -> {
             starting = false;
             if (ex != null) {
-                Throwable c = ex.getCause() != null ? ex.getCause() : ex;
-                info.setText("Cannot play: " + c.getMessage()
-                        + (c instanceof AudioDeviceException ? " (choose another device, or render a WAV file from the command line)" : ""));
+                info.setText(Players.failure(ex, "choose another device, or render a WAV file from the command line"));
                 return;
             }
             engine = e;
